@@ -1,0 +1,176 @@
+//! Struct-of-arrays storage for a catalogue: one `Vec` per column, all the
+//! same length, rows in a fixed order (cell, then index within the cell).
+
+use crate::physics::{ClassCode, StarKind, StarProfile};
+
+/// Where a row came from.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
+pub enum Origin {
+    /// Made by the sampler and population synthesis.
+    #[default]
+    Generated,
+    /// Read from a user's own file.
+    Imported,
+    /// A real star from the Hipparcos new reduction (van Leeuwen 2007).
+    Hipparcos,
+}
+
+impl Origin {
+    /// The value written in the `origin` column.
+    pub fn as_str(self) -> &'static str {
+        match self {
+            Origin::Generated => "generated",
+            Origin::Imported => "imported",
+            Origin::Hipparcos => "hipparcos",
+        }
+    }
+
+    /// Parses a value of the `origin` column.
+    pub fn parse(text: &str) -> Option<Origin> {
+        match text {
+            "generated" => Some(Origin::Generated),
+            "imported" => Some(Origin::Imported),
+            "hipparcos" => Some(Origin::Hipparcos),
+            _ => None,
+        }
+    }
+}
+
+/// One row, for building a catalogue a star at a time.
+#[derive(Debug, Clone, PartialEq)]
+pub struct StarRow {
+    /// Unique star id.
+    pub id: u64,
+    /// Id of the system the star belongs to (the primary's id).
+    pub system: u64,
+    /// Display name.
+    pub name: String,
+    /// Position, light years, galactic cartesian axes (+x to the Galactic
+    /// centre, +y toward l = 90°, +z to the north Galactic pole).
+    pub position_ly: [f64; 3],
+    /// Physical profile.
+    pub profile: StarProfile,
+    /// Projected separation from the system primary, au (0 for the primary).
+    pub separation_au: f64,
+    /// Orbital period about the primary, days (0 for the primary).
+    pub period_days: f64,
+    /// Where the row came from.
+    pub origin: Origin,
+}
+
+/// A catalogue of stars, stored column by column.
+///
+/// # Guarantees
+/// Every column has `len()` entries. Members of one system are adjacent,
+/// primary first, and share its position. Values that a user's own file
+/// did not give and physics could not derive are `NaN`.
+#[derive(Debug, Clone, Default)]
+pub struct Catalogue {
+    /// Unique star ids.
+    pub id: Vec<u64>,
+    /// System ids (equal to the primary's star id).
+    pub system: Vec<u64>,
+    /// Display names.
+    pub name: Vec<String>,
+    /// x, light years, galactic axes.
+    pub x_ly: Vec<f64>,
+    /// y, light years, galactic axes.
+    pub y_ly: Vec<f64>,
+    /// z, light years, galactic axes.
+    pub z_ly: Vec<f64>,
+    /// Kind of object.
+    pub kind: Vec<StarKind>,
+    /// Spectral class code.
+    pub class: Vec<ClassCode>,
+    /// Current mass, solar masses.
+    pub mass_msun: Vec<f64>,
+    /// Initial mass, solar masses.
+    pub initial_mass_msun: Vec<f64>,
+    /// Radius, solar radii.
+    pub radius_rsun: Vec<f64>,
+    /// Luminosity, solar luminosities.
+    pub luminosity_lsun: Vec<f64>,
+    /// Effective temperature, kelvin.
+    pub teff_k: Vec<f64>,
+    /// Age, gigayears.
+    pub age_gyr: Vec<f64>,
+    /// Main-sequence lifetime, gigayears.
+    pub lifetime_gyr: Vec<f64>,
+    /// Conservative habitable-zone inner edge, au.
+    pub hz_inner_au: Vec<f64>,
+    /// Conservative habitable-zone outer edge, au.
+    pub hz_outer_au: Vec<f64>,
+    /// True colour, sRGB.
+    pub color_rgb: Vec<[u8; 3]>,
+    /// Absolute visual magnitude.
+    pub abs_mag_v: Vec<f64>,
+    /// Separation from the primary, au (0 for primaries).
+    pub separation_au: Vec<f64>,
+    /// Orbital period about the primary, days (0 for primaries).
+    pub period_days: Vec<f64>,
+    /// Fiction-grade habitable-host flag.
+    pub habitable_host: Vec<bool>,
+    /// Where each row came from.
+    pub origin: Vec<Origin>,
+}
+
+impl Catalogue {
+    /// Number of rows.
+    pub fn len(&self) -> usize {
+        self.id.len()
+    }
+
+    /// True when there are no rows.
+    pub fn is_empty(&self) -> bool {
+        self.id.is_empty()
+    }
+
+    /// Appends one row.
+    pub fn push(&mut self, row: StarRow) {
+        let p = &row.profile;
+        self.id.push(row.id);
+        self.system.push(row.system);
+        self.name.push(row.name);
+        self.x_ly.push(row.position_ly[0]);
+        self.y_ly.push(row.position_ly[1]);
+        self.z_ly.push(row.position_ly[2]);
+        self.kind.push(p.kind);
+        self.class.push(p.class);
+        self.mass_msun.push(p.mass_msun);
+        self.initial_mass_msun.push(p.initial_mass_msun);
+        self.radius_rsun.push(p.radius_rsun);
+        self.luminosity_lsun.push(p.luminosity_lsun);
+        self.teff_k.push(p.teff_k);
+        self.age_gyr.push(p.age_gyr);
+        self.lifetime_gyr.push(p.lifetime_gyr);
+        self.hz_inner_au.push(p.hz.inner_au);
+        self.hz_outer_au.push(p.hz.outer_au);
+        self.color_rgb.push(p.color_rgb);
+        self.abs_mag_v.push(p.abs_mag_v);
+        self.separation_au.push(row.separation_au);
+        self.period_days.push(row.period_days);
+        self.habitable_host.push(p.habitable_host);
+        self.origin.push(row.origin);
+    }
+
+    /// Position of row `i`, light years.
+    pub fn position_ly(&self, i: usize) -> [f64; 3] {
+        [self.x_ly[i], self.y_ly[i], self.z_ly[i]]
+    }
+
+    /// Row ranges of the systems, in catalogue order: each range holds one
+    /// system's members, primary first.
+    pub fn system_ranges(&self) -> Vec<std::ops::Range<usize>> {
+        let mut ranges = Vec::new();
+        let mut start = 0;
+        for i in 1..=self.len() {
+            if i == self.len() || self.system[i] != self.system[start] {
+                if start < i {
+                    ranges.push(start..i);
+                }
+                start = i;
+            }
+        }
+        ranges
+    }
+}

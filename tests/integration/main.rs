@@ -1,0 +1,3 @@
+//! Integration tests, compiled as one binary: one module per area.
+
+mod util;
