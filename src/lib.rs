@@ -31,8 +31,10 @@
 pub mod atomic_file;
 pub mod catalogue;
 pub mod cli;
+pub mod coords;
 pub mod error;
 pub mod physics;
+pub mod render;
 pub mod seed;
 pub mod units;
 

@@ -5,4 +5,7 @@
 
 pub mod table;
 
-pub use table::{Catalogue, Origin, StarRow};
+pub mod reader;
+
+pub use reader::read_catalogue;
+pub use table::{Catalogue, CatalogueMeta, Origin, StarRow};

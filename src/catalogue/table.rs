@@ -58,6 +58,15 @@ pub struct StarRow {
     pub origin: Origin,
 }
 
+/// What a catalogue says about itself (from the sidecar spec or the file).
+#[derive(Debug, Clone, Default, PartialEq)]
+pub struct CatalogueMeta {
+    /// Sector name for title blocks, if known.
+    pub title: Option<String>,
+    /// Universe seed, if the catalogue was generated.
+    pub seed: Option<u64>,
+}
+
 /// A catalogue of stars, stored column by column.
 ///
 /// # Guarantees
@@ -112,6 +121,8 @@ pub struct Catalogue {
     pub habitable_host: Vec<bool>,
     /// Where each row came from.
     pub origin: Vec<Origin>,
+    /// Title and seed, when known.
+    pub meta: CatalogueMeta,
 }
 
 impl Catalogue {

@@ -1,0 +1,7 @@
+//! Drawing: projections from light years to page millimetres, a display
+//! list ([`scene::Scene`]) and back ends that turn it into PNG, SVG or PDF.
+//!
+//! **Architecture invariant:** render never calls physics; it reads the
+//! catalogue's resolved columns.
+
+pub mod scene;
