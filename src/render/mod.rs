@@ -4,4 +4,7 @@
 //! **Architecture invariant:** render never calls physics; it reads the
 //! catalogue's resolved columns.
 
+pub mod output;
+pub mod overlay;
+pub mod paper;
 pub mod scene;
