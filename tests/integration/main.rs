@@ -1,3 +1,4 @@
 //! Integration tests, compiled as one binary: one module per area.
 
 mod util;
+mod tidy;
