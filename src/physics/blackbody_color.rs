@@ -61,7 +61,7 @@ fn parse_cie_table(text: &str) -> [[f64; 3]; CIE_ROWS] {
         else {
             continue;
         };
-        let idx = nm as usize - CIE_FIRST_NM;
+        let idx = (nm as usize).wrapping_sub(CIE_FIRST_NM);
         if idx < CIE_ROWS {
             table[idx] = [x, y, z];
             n_rows += 1;
@@ -190,9 +190,14 @@ pub fn color_rgb(teff_k: f64) -> [u8; 3] {
     let exponent = ((bits >> MANTISSA_BITS) & 0x7ff) as i64 - 1023;
     let mantissa = bits & ((1u64 << MANTISSA_BITS) - 1);
     let sub = (mantissa >> FRACTION_BITS) as usize;
-    let fraction =
+    let mut fraction =
         (mantissa & ((1u64 << FRACTION_BITS) - 1)) as f64 / (1u64 << FRACTION_BITS) as f64;
-    let idx = ((exponent - FIRST_OCTAVE_EXP) as usize * SUBS_PER_OCTAVE + sub).min(LUT_LEN - 2);
+    let mut idx = (exponent - FIRST_OCTAVE_EXP) as usize * SUBS_PER_OCTAVE + sub;
+    if idx >= LUT_LEN - 1 {
+        // Exactly COLOR_TEFF_MAX_K: the last entry.
+        idx = LUT_LEN - 2;
+        fraction = 1.0;
+    }
     let lut = &*COLOR_LUT;
     let (lo, hi) = (lut[idx], lut[idx + 1]);
     [0, 1, 2].map(|c| {
@@ -420,6 +425,11 @@ mod tests {
         assert_eq!(color_rgb(f64::NAN), color_rgb(COLOR_TEFF_MIN_K));
         assert_eq!(color_rgb(-3.0), color_rgb(COLOR_TEFF_MIN_K));
         assert_eq!(color_rgb(f64::INFINITY), color_rgb(COLOR_TEFF_MAX_K));
+        // The top of the range reads the last table entry.
+        let last = COLOR_LUT[LUT_LEN - 1].map(|c| to_u8(c as f64));
+        assert_eq!(color_rgb(COLOR_TEFF_MAX_K), last);
+        assert_eq!(lut_temperature(LUT_LEN - 1), COLOR_TEFF_MAX_K);
+        assert_eq!(lut_temperature(0), 512.0);
         assert_eq!(color_rgb(0.0), color_rgb(COLOR_TEFF_MIN_K));
     }
 }
