@@ -11,7 +11,11 @@
 //!
 //! **Architecture invariant:** physics never sees a random-number generator.
 
+pub mod blackbody_color;
+pub mod habitable_zone;
 pub mod kinds;
+pub mod photometry;
+pub mod spectral_class;
 
 pub use kinds::{ClassCode, Fidelity, HabitableZone, KindChoice, StarKind, StarProfile};
 
