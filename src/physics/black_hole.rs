@@ -3,7 +3,7 @@
 //!
 //! # Source
 //! - r_s = 2GM/c² from the IAU 2015 B3 nominal (GM)☉: 2953.250 m per Msun
-//!   (shared/science stars.md §8f [derived]). Photon sphere 1.5 r_s;
+//!   (shared/science stars.md §8f, derived). Photon sphere 1.5 r_s;
 //!   innermost stable circular orbit 3 r_s = 6GM/c². These hold for a
 //!   non-rotating hole; the ISCO, not the photon sphere, bounds stable orbits.
 //! - Mass from the initial mass: an illustrative mapping of our own,

@@ -7,7 +7,7 @@
 //! one initial mass; [`Track::state_at`] places the star at a given age.
 //!
 //! # Source and accuracy
-//! - Main sequence: [`main_sequence`](super::main_sequence) (Tout et al.
+//! - Main sequence: [`main_sequence`] (Tout et al.
 //!   1996, HPT2000 lifetimes).
 //! - Hertzsprung gap (subgiants), t_MS to t_BGB (HPT2000 eqs 4–5): L and R
 //!   move log-linearly in time from their end-of-main-sequence values to

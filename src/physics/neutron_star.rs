@@ -7,7 +7,7 @@
 //!   Riley et al. 2019: 12.71 km) and PSR J0740+6620 (Salmi et al. 2024:
 //!   12.49 +1.28/−0.88 km), shared/science stars.md §8d.
 //! - Mass: the remnant-mass rule of Belczynski et al. 2002 as coded in SSE
-//!   (hrdiag.f, stars.md §8d [verified]): `M = 0.161767 Mc + 1.067055` for
+//!   (hrdiag.f, stars.md §8d, verified): `M = 0.161767 Mc + 1.067055` for
 //!   a CO core Mc < 2.5 Msun, `0.314154 Mc + 0.686088` above. The CO core
 //!   mass comes from our own linear approximation `Mc = 0.25 M_i − 1.0`
 //!   (not from a paper), giving 1.23 Msun at M_i = 7.91 and 1.94 Msun at
@@ -73,7 +73,7 @@ mod tests {
 
     #[test]
     fn radius_inside_nicer_intervals() {
-        // NICER 68 % intervals (stars.md §8d [verified]): J0030 (Miller 2019) 11.96–14.26 km,
+        // NICER 68 % intervals (stars.md §8d, verified): J0030 (Miller 2019) 11.96–14.26 km,
         // J0740 (Salmi 2024) 11.61–13.77 km.
         assert!((11.96..=14.26).contains(&RADIUS_KM));
         assert!((11.61..=13.77).contains(&RADIUS_KM));
@@ -81,7 +81,7 @@ mod tests {
 
     #[test]
     fn belczynski_rule_and_mass_range() {
-        // Belczynski 2002 as coded in SSE: continuous at Mc = 2.5 (stars.md §8d [verified]).
+        // Belczynski 2002 as coded in SSE: continuous at Mc = 2.5 (stars.md §8d, verified).
         let below: f64 = 0.161_767 * 2.5 + 1.067_055;
         let above = 0.314_154 * 2.5 + 0.686_088;
         assert!((below - above).abs() < 1e-4);

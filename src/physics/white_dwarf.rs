@@ -3,7 +3,7 @@
 //!
 //! # Source
 //! - Initial–final mass relation: Cummings et al. 2018, ApJ 866, 21, the
-//!   MIST-based three-piece fit (shared/science stars.md §8a [verified]),
+//!   MIST-based three-piece fit (shared/science stars.md §8a, verified),
 //!   valid for initial masses 0.83–7.20 Msun. Below 0.83 we extend the
 //!   first piece (such stars have not yet left the main sequence within
 //!   13.8 Gyr, so this only matters for explicit requests); from 7.20 to
@@ -114,7 +114,7 @@ mod tests {
         }
         // The example of issue 2: 1.5 Msun → about 0.6 Msun (0.609 by the fit).
         assert!((final_mass_msun(1.5) - 0.609).abs() < 1e-9);
-        // Break-point jumps: 0 at 2.85, 1e-3 at 3.60 (stars.md §8a [derived]).
+        // Break-point jumps: 0 at 2.85, 1e-3 at 3.60 (stars.md §8a, derived).
         let jump = |m: f64| final_mass_msun(m * (1.0 + 1e-12)) - final_mass_msun(m);
         assert!(jump(2.85).abs() < 1e-4);
         assert!((jump(3.6).abs() - 1.0e-3).abs() < 1e-4);
