@@ -1,0 +1,250 @@
+//! Whole-profile tests: sweeps of the allowed domain and jumps at the
+//! break points between formulae.
+
+use super::*;
+
+fn profile(mass: f64, age: f64, kind: KindChoice, fidelity: Fidelity) -> StarProfile {
+    star_profile(
+        &StarRequest {
+            mass: SolarMasses::new(mass).unwrap(),
+            age: Gigayears::new(age).unwrap(),
+            kind,
+        },
+        fidelity,
+    )
+}
+
+fn assert_finite(p: &StarProfile) {
+    let values = [
+        p.mass_msun,
+        p.initial_mass_msun,
+        p.radius_rsun,
+        p.luminosity_lsun,
+        p.teff_k,
+        p.age_gyr,
+        p.lifetime_gyr,
+        p.hz.inner_au,
+        p.hz.outer_au,
+        p.hz.optimistic_inner_au,
+        p.hz.optimistic_outer_au,
+        p.abs_mag_v,
+        p.radius_km(),
+        p.mean_density_kg_m3(),
+        p.surface_gravity_sun(),
+    ];
+    for v in values {
+        assert!(v.is_finite(), "{p:?}");
+    }
+    assert!(
+        p.mass_msun > 0.0 && p.radius_rsun > 0.0 && p.luminosity_lsun >= 0.0,
+        "{p:?}"
+    );
+    assert!(
+        p.mass_msun <= p.initial_mass_msun * (1.0 + 1e-12) || p.kind.is_remnant(),
+        "{p:?}"
+    );
+}
+
+#[test]
+fn no_nan_anywhere_in_the_auto_domain() {
+    // Masses 0.013–150 Msun (log-spaced) × ages 0–13.8 Gyr, both fidelities.
+    for fidelity in [Fidelity::Fitted, Fidelity::Rules] {
+        for i in 0..=400 {
+            let mass = 0.013 * (150.0f64 / 0.013).powf(i as f64 / 400.0);
+            for j in 0..=138 {
+                let p = profile(mass, j as f64 * 0.1, KindChoice::Auto, fidelity);
+                assert_finite(&p);
+                if p.kind != StarKind::BlackHole {
+                    assert!(p.teff_k > 0.0, "{p:?}");
+                }
+                assert!(p.hz.inner_au <= p.hz.outer_au);
+            }
+        }
+    }
+}
+
+#[test]
+fn every_stage_is_reached_in_a_fine_time_sweep() {
+    // A 1 Msun and a 15 Msun star pass through every stage the model has.
+    let th = RemnantThresholds::default();
+    let mut seen = std::collections::BTreeSet::new();
+    for m in [1.0, 5.0, 15.0, 40.0] {
+        let track = evolution::Track::new(m, &th);
+        for i in 0..=20_000 {
+            let t = track.t_end_gyr * 1.01 * i as f64 / 20_000.0;
+            seen.insert(evolution::evolve(m, t, &th).kind);
+        }
+    }
+    for kind in StarKind::ALL {
+        if kind != StarKind::BrownDwarf {
+            assert!(seen.contains(&kind), "{kind} never reached");
+        }
+    }
+}
+
+/// log10 of the ratio of L and of R across time `t` on the track of `m`.
+fn jump_dex(m: f64, t: f64) -> (f64, f64) {
+    let th = RemnantThresholds::default();
+    let eps = 1e-9 * t;
+    let (a, b) = (
+        evolution::evolve(m, t - eps, &th),
+        evolution::evolve(m, t + eps, &th),
+    );
+    (
+        (b.luminosity_lsun / a.luminosity_lsun).log10(),
+        (b.radius_rsun / a.radius_rsun).log10(),
+    )
+}
+
+#[test]
+fn jumps_between_phases() {
+    // End of the main sequence, base of the giant branch and end of core helium
+    // burning: continuous in L and R (< 0.005 dex). Helium ignition: the documented
+    // jumps — the helium flash for degenerate cores (tip → 50 Lsun red clump), a drop
+    // to 0.8 L (−0.097 dex) for non-degenerate ignition (above M_FGB at the end of the
+    // gap, where there is no giant branch).
+    let th = RemnantThresholds::default();
+    for m in [
+        0.9, 1.0, 1.5, 2.0, 2.3, 3.0, 6.0, 9.0, 12.0, 30.0, 90.0, 150.0,
+    ] {
+        let track = evolution::Track::new(m, &th);
+        let no_giant_branch = track.t_hei_gyr == track.t_bgb_gyr;
+        for t in [track.t_ms_gyr, track.t_bgb_gyr, track.t_che_end_gyr] {
+            if no_giant_branch && t == track.t_bgb_gyr {
+                continue;
+            }
+            let (dl, dr) = jump_dex(m, t);
+            assert!(dl.abs() < 5e-3 && dr.abs() < 5e-3, "M {m} t {t}: {dl} {dr}");
+        }
+        let (dl, dr) = jump_dex(m, track.t_hei_gyr);
+        if m <= evolution::M_HEF_MSUN {
+            let before = evolution::evolve(m, track.t_hei_gyr * (1.0 - 1e-9), &th).luminosity_lsun;
+            let after = evolution::evolve(m, track.t_hei_gyr * (1.0 + 1e-9), &th).luminosity_lsun;
+            assert!(
+                after == 50.0 && before > 1000.0,
+                "M {m}: {before} → {after}"
+            );
+        } else if m >= 3.0 {
+            assert!((dl - 0.8f64.log10()).abs() < 5e-3, "M {m}: {dl}");
+            assert!(dr <= 1e-5 && dr > -0.3, "M {m}: {dr}");
+        }
+    }
+}
+
+#[test]
+fn jumps_across_mass_break_points() {
+    // Track quantities across the mass break points of the prescription (M_HeF,
+    // 1.25 M_HeF, the 2.0/2.5 Msun change of the core-mass–luminosity exponents, the
+    // 8–12 Msun radius ramp): changes below 2 % for a 1e-6 change in mass. At the
+    // white-dwarf/neutron-star threshold (7.91 Msun) only the last phase changes
+    // (AGB growth vs 1 % of t_MS): t_end changes by less than 5 %.
+    let th = RemnantThresholds::default();
+    for edge in [
+        evolution::M_HEF_MSUN,
+        1.25 * evolution::M_HEF_MSUN,
+        2.0,
+        2.5,
+        8.0,
+        10.0,
+        12.0,
+    ] {
+        let (a, b) = (
+            evolution::Track::new(edge * (1.0 - 1e-6), &th),
+            evolution::Track::new(edge * (1.0 + 1e-6), &th),
+        );
+        for (x, y) in [
+            (a.t_hei_gyr, b.t_hei_gyr),
+            (a.t_che_end_gyr, b.t_che_end_gyr),
+            (a.t_end_gyr, b.t_end_gyr),
+        ] {
+            assert!((x / y - 1.0).abs() < 0.02, "edge {edge}: {x} vs {y}");
+        }
+        let mid = |t: &evolution::Track| t.state_at(0.5 * (t.t_hei_gyr + t.t_che_end_gyr), &th);
+        let (sa, sb) = (mid(&a), mid(&b));
+        assert!(
+            (sa.luminosity_lsun / sb.luminosity_lsun - 1.0).abs() < 0.02,
+            "edge {edge}"
+        );
+        assert!(
+            (sa.radius_rsun / sb.radius_rsun - 1.0).abs() < 0.02,
+            "edge {edge}"
+        );
+    }
+    let e = th.white_dwarf_max_initial_msun;
+    let (a, b) = (
+        evolution::Track::new(e, &th),
+        evolution::Track::new(e * (1.0 + 1e-6), &th),
+    );
+    assert!(
+        (a.t_end_gyr / b.t_end_gyr - 1.0).abs() < 0.05,
+        "{} {}",
+        a.t_end_gyr,
+        b.t_end_gyr
+    );
+}
+
+#[test]
+fn jumps_at_the_fit_edges() {
+    // 0.1 and 100 Msun: zero jump in L and R (tangent extrapolation, main_sequence.rs).
+    for edge in [0.1, 100.0] {
+        let below = profile(edge * (1.0 - 1e-9), 0.0, KindChoice::Auto, Fidelity::Fitted);
+        let above = profile(edge * (1.0 + 1e-9), 0.0, KindChoice::Auto, Fidelity::Fitted);
+        assert!((below.luminosity_lsun / above.luminosity_lsun - 1.0).abs() < 1e-6);
+        assert!((below.radius_rsun / above.radius_rsun - 1.0).abs() < 1e-6);
+    }
+    // Hydrogen-burning limit 0.075 Msun at 4.6 Gyr: brown dwarf fainter by 1–2 dex
+    // (documented in brown_dwarf.rs).
+    let bd = profile(0.0749, 4.6, KindChoice::Auto, Fidelity::Fitted);
+    let star = profile(0.0751, 4.6, KindChoice::Auto, Fidelity::Fitted);
+    assert_eq!(
+        (bd.kind, star.kind),
+        (StarKind::BrownDwarf, StarKind::MainSequence)
+    );
+    let jump = (star.luminosity_lsun / bd.luminosity_lsun).log10();
+    assert!((1.0..2.0).contains(&jump), "{jump}");
+}
+
+#[test]
+fn black_holes_have_no_light_but_finite_numbers() {
+    let p = profile(
+        10.0,
+        4.6,
+        KindChoice::Explicit(StarKind::BlackHole),
+        Fidelity::Fitted,
+    );
+    assert_eq!((p.luminosity_lsun, p.teff_k), (0.0, 0.0));
+    assert_eq!(p.color_rgb, [0, 0, 0]);
+    // r_s = 29.5325 km for 10 Msun (stars.md §8f [derived]).
+    assert!((p.schwarzschild_km() - 29.5325).abs() < 1e-3);
+    assert!((p.radius_km() - 29.5325).abs() < 1e-3);
+    assert!((p.isco_km() / p.photon_sphere_km() - 2.0).abs() < 1e-12);
+    assert_finite(&p);
+}
+
+#[test]
+fn derived_quantities_of_the_sun() {
+    // Nominal Sun (IAU 2015 B3, CODATA 2018 G): mean density 3M/(4πR³) = 1409.8 kg/m³
+    // [derived; the often quoted 1408 uses older M and R], surface gravity 274.2 m/s²
+    // [derived], circumference 2π·695 700 km = 4.3712e6 km.
+    let sun = StarProfile {
+        radius_rsun: 1.0,
+        mass_msun: 1.0,
+        ..profile(1.0, 4.6, KindChoice::Auto, Fidelity::Fitted)
+    };
+    assert!(
+        (sun.mean_density_kg_m3() - 1409.8).abs() < 0.5,
+        "{}",
+        sun.mean_density_kg_m3()
+    );
+    assert!((sun.surface_gravity_m_s2() - 274.2).abs() < 0.1);
+    assert!((sun.circumference_km() - 4.3712e6).abs() < 1e3);
+    // 1 Rsun = 109.08 Earth radii (IAU 2015 B3 nominal values).
+    assert!((sun.radius_earth() - 109.076).abs() < 1e-2);
+}
+
+#[test]
+fn habitable_host_flag_on_profiles() {
+    assert!(profile(1.0, 4.6, KindChoice::Auto, Fidelity::Fitted).habitable_host);
+    assert!(!profile(1.0, 0.2, KindChoice::Auto, Fidelity::Fitted).habitable_host);
+    assert!(!profile(2.0, 1.0, KindChoice::Auto, Fidelity::Fitted).habitable_host);
+}
