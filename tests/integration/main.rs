@@ -1,4 +1,5 @@
 //! Integration tests, compiled as one binary: one module per area.
 
-mod util;
+mod cli_star;
 mod tidy;
+mod util;

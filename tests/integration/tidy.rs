@@ -16,7 +16,10 @@ fn rust_files(dir: &Path, out: &mut Vec<PathBuf>) {
 
 fn sources() -> Vec<PathBuf> {
     let mut files = Vec::new();
-    rust_files(&Path::new(env!("CARGO_MANIFEST_DIR")).join("src"), &mut files);
+    rust_files(
+        &Path::new(env!("CARGO_MANIFEST_DIR")).join("src"),
+        &mut files,
+    );
     files.sort();
     files
 }
@@ -30,7 +33,10 @@ fn every_module_starts_with_a_doc_comment() {
             !text.trim_start().starts_with("//!")
         })
         .collect();
-    assert!(missing.is_empty(), "files without a //! header: {missing:?}");
+    assert!(
+        missing.is_empty(),
+        "files without a //! header: {missing:?}"
+    );
 }
 
 #[test]
