@@ -12,6 +12,8 @@
 use nalgebra::{Matrix3, Vector3};
 
 /// The ICRS → galactic rotation, rows as used for r_gal = A · r_icrs.
+// The digits are kept as published, beyond f64 precision.
+#[allow(clippy::excessive_precision)]
 pub const ICRS_TO_GALACTIC: [[f64; 3]; 3] = [
     [
         -0.054_875_560_416_215_4,
