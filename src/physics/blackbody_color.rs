@@ -131,7 +131,10 @@ pub fn color_rgb_direct(teff_k: f64) -> [u8; 3] {
 }
 
 fn to_u8(encoded: f64) -> u8 {
-    (encoded * 255.0).round().clamp(0.0, 255.0) as u8
+    // Round half up by adding 0.5; the `as` cast saturates to 0–255 (and maps
+    // NaN to 0). Cheaper than `f64::round`, which is a library call on
+    // baseline x86-64.
+    (encoded * 255.0 + 0.5) as u8
 }
 
 fn clamp_teff(teff_k: f64) -> f64 {
