@@ -182,7 +182,8 @@ static COLOR_LUT: LazyLock<Vec<[f32; 3]>> = LazyLock::new(|| {
 /// None per call. The first call builds a 705-entry table (about 330 000
 /// exponentials, a few milliseconds); afterwards a call is a few bit
 /// operations, two table reads and three linear interpolations: no
-/// exponential, power or logarithm.
+/// exponential, power or logarithm. About 13–22 ns per call in the
+/// `physics_light` benchmark (release build, shared 2-core machine).
 ///
 /// # Source
 /// Planck (1901) × CIE 1931 2° (CIE 2019 data set) → IEC 61966-2-1 sRGB;
