@@ -131,7 +131,10 @@ pub fn color_rgb_direct(teff_k: f64) -> [u8; 3] {
 }
 
 fn to_u8(encoded: f64) -> u8 {
-    (encoded * 255.0).round().clamp(0.0, 255.0) as u8
+    // Round half up by adding 0.5; the `as` cast saturates to 0–255 (and maps
+    // NaN to 0). Cheaper than `f64::round`, which is a library call on
+    // baseline x86-64.
+    (encoded * 255.0 + 0.5) as u8
 }
 
 fn clamp_teff(teff_k: f64) -> f64 {
@@ -179,7 +182,8 @@ static COLOR_LUT: LazyLock<Vec<[f32; 3]>> = LazyLock::new(|| {
 /// None per call. The first call builds a 705-entry table (about 330 000
 /// exponentials, a few milliseconds); afterwards a call is a few bit
 /// operations, two table reads and three linear interpolations: no
-/// exponential, power or logarithm.
+/// exponential, power or logarithm. About 13–22 ns per call in the
+/// `physics_light` benchmark (release build, shared 2-core machine).
 ///
 /// # Source
 /// Planck (1901) × CIE 1931 2° (CIE 2019 data set) → IEC 61966-2-1 sRGB;
