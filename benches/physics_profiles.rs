@@ -59,3 +59,19 @@ fn fitted_1m_low_masses(bencher: divan::Bencher) {
 fn rules_1m_all_masses(bencher: divan::Bencher) {
     run(bencher, 0.013, 150.0, Fidelity::Rules);
 }
+
+/// The evolution step alone (no class, colour, habitable zone, magnitude), all masses.
+#[divan::bench(sample_count = 5, sample_size = 1)]
+fn evolve_only_1m_all_masses(bencher: divan::Bencher) {
+    let input = requests(0.013, 150.0);
+    let thresholds = starloom::physics::RemnantThresholds::default();
+    bencher.bench(|| {
+        let mut sum = 0.0;
+        for request in &input {
+            let r = divan::black_box(request);
+            let b = starloom::physics::evolution::evolve(r.mass.get(), r.age.get(), &thresholds);
+            sum += b.luminosity_lsun + b.teff_k;
+        }
+        divan::black_box(sum)
+    });
+}

@@ -25,6 +25,7 @@ pub mod main_sequence;
 pub mod neutron_star;
 pub mod request_limits;
 pub mod rules;
+pub mod track_table;
 pub mod white_dwarf;
 
 // Owned by the "light" engineer (placeholders on this branch).

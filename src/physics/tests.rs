@@ -87,8 +87,8 @@ fn jump_dex(m: f64, t: f64) -> (f64, f64) {
     let th = RemnantThresholds::default();
     let eps = 1e-9 * t;
     let (a, b) = (
-        evolution::evolve(m, t - eps, &th),
-        evolution::evolve(m, t + eps, &th),
+        evolution::evolve_direct(m, t - eps, &th),
+        evolution::evolve_direct(m, t + eps, &th),
     );
     (
         (b.luminosity_lsun / a.luminosity_lsun).log10(),
@@ -118,8 +118,10 @@ fn jumps_between_phases() {
         }
         let (dl, dr) = jump_dex(m, track.t_hei_gyr);
         if m <= evolution::M_HEF_MSUN {
-            let before = evolution::evolve(m, track.t_hei_gyr * (1.0 - 1e-9), &th).luminosity_lsun;
-            let after = evolution::evolve(m, track.t_hei_gyr * (1.0 + 1e-9), &th).luminosity_lsun;
+            let before =
+                evolution::evolve_direct(m, track.t_hei_gyr * (1.0 - 1e-9), &th).luminosity_lsun;
+            let after =
+                evolution::evolve_direct(m, track.t_hei_gyr * (1.0 + 1e-9), &th).luminosity_lsun;
             assert!(
                 after == 50.0 && before > 1000.0,
                 "M {m}: {before} → {after}"
