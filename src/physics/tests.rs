@@ -250,3 +250,37 @@ fn habitable_host_flag_on_profiles() {
     assert!(!profile(1.0, 0.2, KindChoice::Auto, Fidelity::Fitted).habitable_host);
     assert!(!profile(2.0, 1.0, KindChoice::Auto, Fidelity::Fitted).habitable_host);
 }
+
+#[test]
+fn main_sequence_against_the_mamajek_dwarf_sequence() {
+    // Pecaut & Mamajek 2013 / Mamajek table 2024.05.15 (stars.md §3 [verified]): rows of
+    // (M, log L, R). The table describes field dwarfs of mixed age; we compare with our
+    // star at min(4.6 Gyr, 0.4 t_MS). Tolerance: 0.12 dex in L and 16 % in R, the
+    // documented accuracy of a ZAMS fit plus our main-sequence prescription (Tout 1996
+    // fits are good to ~5 %; mid-life brightening adds 0.1 dex).
+    for (m, log_l, r) in [
+        (0.155, -2.520, 0.196), // M5V
+        (0.585, -1.164, 0.588), // M0V
+        (0.70, -0.780, 0.701),  // K5V
+        (0.86, -0.324, 0.813),  // K0V
+        (1.0, 0.010, 1.012),    // G2V
+        (1.07, 0.130, 1.100),   // G0V
+        (1.32, 0.556, 1.473),   // F5V
+        (1.60, 0.864, 1.728),   // F0V
+        (2.33, 1.584, 2.193),   // A0V
+        (4.7, 2.772, 3.36),     // B5V
+        (17.7, 4.652, 7.16),    // B0V
+        (20.2, 4.820, 7.72),    // O9V
+    ] {
+        let age = (0.4 * main_sequence::t_ms_gyr(m)).min(4.6);
+        let p = profile(m, age, KindChoice::Auto, Fidelity::Fitted);
+        assert_eq!(p.kind, StarKind::MainSequence);
+        let d_log_l = p.luminosity_lsun.log10() - log_l;
+        assert!(d_log_l.abs() < 0.12, "M {m}: {d_log_l}");
+        assert!(
+            (p.radius_rsun / r - 1.0).abs() < 0.16,
+            "M {m}: {}",
+            p.radius_rsun / r
+        );
+    }
+}
