@@ -181,6 +181,9 @@ pub struct Track {
     mc_agb_start: f64,
     mc_final: f64,
     l_agb_tip: f64,
+    ln_l_gap: f64,
+    ln_r_gap: f64,
+    r_white_dwarf: f64,
     white_dwarf_progenitor: bool,
 }
 
@@ -255,6 +258,9 @@ impl Track {
             mc_agb_start,
             mc_final,
             l_agb_tip,
+            ln_l_gap: (l_bgb / l_tms).ln(),
+            ln_r_gap: (r_bgb / r_tms).ln(),
+            r_white_dwarf: white_dwarf::radius_rsun(mc_final_wd),
             white_dwarf_progenitor,
         }
     }
@@ -294,6 +300,9 @@ impl Track {
             mc_agb_start: f(self.mc_agb_start, other.mc_agb_start),
             mc_final: f(self.mc_final, other.mc_final),
             l_agb_tip: f(self.l_agb_tip, other.l_agb_tip),
+            ln_l_gap: f(self.ln_l_gap, other.ln_l_gap),
+            ln_r_gap: f(self.ln_r_gap, other.ln_r_gap),
+            r_white_dwarf: f(self.r_white_dwarf, other.r_white_dwarf),
             white_dwarf_progenitor: self.white_dwarf_progenitor,
         }
     }
@@ -319,8 +328,8 @@ impl Track {
         let life = self.t_ms_gyr;
         if t < self.t_bgb_gyr {
             let x = ((t - self.t_ms_gyr) / (self.t_bgb_gyr - self.t_ms_gyr)).clamp(0.0, 1.0);
-            let l = self.l_tms * (self.l_bgb / self.l_tms).powf(x);
-            let r = self.r_tms * (self.r_bgb / self.r_tms).powf(x);
+            let l = self.l_tms * (x * self.ln_l_gap).exp();
+            let r = self.r_tms * (x * self.ln_r_gap).exp();
             return Body::new(self.evolved(StarKind::Subgiant), m, m, r, l, t, life);
         }
         if t < self.t_hei_gyr {
@@ -388,7 +397,17 @@ impl Track {
         let m = self.mass_msun;
         let cooling = age_gyr - self.t_end_gyr;
         if self.white_dwarf_progenitor {
-            white_dwarf_body(self.mc_final, m, cooling, age_gyr, self.t_ms_gyr)
+            let l = white_dwarf::cooling_luminosity_lsun(self.mc_final, cooling);
+            let r = self.r_white_dwarf;
+            Body::new(
+                StarKind::WhiteDwarf,
+                self.mc_final,
+                m,
+                r,
+                l,
+                age_gyr,
+                self.t_ms_gyr,
+            )
         } else if m <= thresholds.neutron_star_max_initial_msun {
             neutron_star_body(
                 neutron_star::mass_from_initial_msun(m),
