@@ -284,3 +284,17 @@ fn main_sequence_against_the_mamajek_dwarf_sequence() {
         );
     }
 }
+
+#[test]
+fn masses_beyond_the_allowed_range_stay_finite() {
+    // The CLI refuses them, but library callers might not: no NaN or infinity.
+    for mass in [0.001, 0.01, 151.0, 300.0, 1e3, 1e4] {
+        for age in [0.0, 0.001, 1.0, 13.8] {
+            for fidelity in [Fidelity::Fitted, Fidelity::Rules] {
+                let p = profile(mass, age, KindChoice::Auto, fidelity);
+                assert!(p.luminosity_lsun.is_finite() && p.radius_rsun.is_finite(), "{p:?}");
+                assert!(p.teff_k.is_finite() && p.abs_mag_v.is_finite(), "{p:?}");
+            }
+        }
+    }
+}
