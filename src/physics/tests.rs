@@ -292,9 +292,56 @@ fn masses_beyond_the_allowed_range_stay_finite() {
         for age in [0.0, 0.001, 1.0, 13.8] {
             for fidelity in [Fidelity::Fitted, Fidelity::Rules] {
                 let p = profile(mass, age, KindChoice::Auto, fidelity);
-                assert!(p.luminosity_lsun.is_finite() && p.radius_rsun.is_finite(), "{p:?}");
+                assert!(
+                    p.luminosity_lsun.is_finite() && p.radius_rsun.is_finite(),
+                    "{p:?}"
+                );
                 assert!(p.teff_k.is_finite() && p.abs_mag_v.is_finite(), "{p:?}");
             }
         }
     }
+}
+
+#[test]
+fn rules_fidelity_profiles() {
+    // The issue's rules (common practice, no source): L = M^3.5, R = M^0.8 / M^0.5,
+    // t_MS = 10 Gyr M/L, Teff by Stefan–Boltzmann (5772 K at L = R = 1, IAU 2015 B3),
+    // HZ sqrt(L/1.1)..sqrt(L/0.53) au.
+    let sun = profile(1.0, 4.6, KindChoice::Auto, Fidelity::Rules);
+    assert_eq!(
+        (sun.luminosity_lsun, sun.radius_rsun, sun.teff_k),
+        (1.0, 1.0, 5772.0)
+    );
+    assert!((sun.hz.inner_au - (1.0f64 / 1.1).sqrt()).abs() < 1e-12);
+    assert!((sun.hz.outer_au - (1.0f64 / 0.53).sqrt()).abs() < 1e-12);
+    let a_star = profile(2.0, 0.5, KindChoice::Auto, Fidelity::Rules);
+    assert!((a_star.luminosity_lsun - 2f64.powf(3.5)).abs() < 1e-9);
+    assert!((a_star.radius_rsun - 2f64.sqrt()).abs() < 1e-12);
+    assert!((a_star.lifetime_gyr - 10.0 * 2.0 / 2f64.powf(3.5)).abs() < 1e-12);
+    let expected_teff = 5772.0 * 2f64.powf(3.5 / 4.0) / 2f64.powf(0.25);
+    assert!((a_star.teff_k - expected_teff).abs() < 1e-6);
+    // White dwarf of 0.6 Msun: 1 Earth radius × 0.6^(-1/3) (the issue's rule).
+    let wd = profile(
+        0.6,
+        5.0,
+        KindChoice::Explicit(StarKind::WhiteDwarf),
+        Fidelity::Rules,
+    );
+    assert!((wd.radius_earth() - 0.6f64.powf(-1.0 / 3.0)).abs() < 1e-9);
+}
+
+#[test]
+fn the_issue_example_as_a_profile() {
+    // Issue 2: a 1.5 Msun star at 12 Gyr is a white dwarf of about 0.6 Msun, initial 1.5.
+    let p = profile(1.5, 12.0, KindChoice::Auto, Fidelity::Fitted);
+    assert_eq!(p.kind, StarKind::WhiteDwarf);
+    assert!((p.mass_msun - 0.6).abs() < 0.02);
+    assert_eq!(p.initial_mass_msun, 1.5);
+    // Nauenberg radius of 0.609 Msun ≈ 0.0124 Rsun ≈ 1.35 Earth radii (white_dwarf.rs).
+    assert!(
+        (p.radius_earth() - 1.35).abs() < 0.05,
+        "{}",
+        p.radius_earth()
+    );
+    assert!(!p.habitable_host);
 }
