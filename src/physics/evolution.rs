@@ -52,6 +52,7 @@ use super::giant_branch::{CoreMassLuminosity, giant_radius_rsun};
 use super::kinds::StarKind;
 use super::main_sequence::{self, main_sequence_l_r};
 use super::neutron_star;
+use super::track_table;
 use super::white_dwarf;
 
 /// Mass above which helium ignites non-degenerately, Msun (HPT2000 M_HeF at Z = 0.02).
@@ -128,7 +129,7 @@ pub struct Body {
 }
 
 impl Body {
-    fn new(
+    pub(crate) fn new(
         kind: StarKind,
         mass: f64,
         initial: f64,
@@ -180,6 +181,9 @@ pub struct Track {
     mc_agb_start: f64,
     mc_final: f64,
     l_agb_tip: f64,
+    ln_l_gap: f64,
+    ln_r_gap: f64,
+    r_white_dwarf: f64,
     white_dwarf_progenitor: bool,
 }
 
@@ -254,8 +258,58 @@ impl Track {
             mc_agb_start,
             mc_final,
             l_agb_tip,
+            ln_l_gap: (l_bgb / l_tms).ln(),
+            ln_r_gap: (r_bgb / r_tms).ln(),
+            r_white_dwarf: white_dwarf::radius_rsun(mc_final_wd),
             white_dwarf_progenitor,
         }
+    }
+
+    /// Linear interpolation between two tracks of neighbouring masses
+    /// (`w` = 0 gives `self`), for the lookup table of [`track_table`](super::track_table).
+    /// Both must be on the same side of the white-dwarf threshold.
+    pub(crate) fn lerp(&self, other: &Track, w: f64) -> Track {
+        let f = |a: f64, b: f64| a + (b - a) * w;
+        let (c, d) = (&self.cml, &other.cml);
+        Track {
+            mass_msun: f(self.mass_msun, other.mass_msun),
+            t_ms_gyr: f(self.t_ms_gyr, other.t_ms_gyr),
+            t_bgb_gyr: f(self.t_bgb_gyr, other.t_bgb_gyr),
+            t_hei_gyr: f(self.t_hei_gyr, other.t_hei_gyr),
+            t_che_end_gyr: f(self.t_che_end_gyr, other.t_che_end_gyr),
+            t_end_gyr: f(self.t_end_gyr, other.t_end_gyr),
+            l_tms: f(self.l_tms, other.l_tms),
+            r_tms: f(self.r_tms, other.r_tms),
+            l_bgb: f(self.l_bgb, other.l_bgb),
+            r_bgb: f(self.r_bgb, other.r_bgb),
+            l_hei: f(self.l_hei, other.l_hei),
+            cml: CoreMassLuminosity {
+                p: f(c.p, d.p),
+                q: f(c.q, d.q),
+                d: f(c.d, d.d),
+                b: f(c.b, d.b),
+                mx: f(c.mx, d.mx),
+                a_h: f(c.a_h, d.a_h),
+            },
+            mc_bgb: f(self.mc_bgb, other.mc_bgb),
+            mc_hei: f(self.mc_hei, other.mc_hei),
+            rgb_loss: f(self.rgb_loss, other.rgb_loss),
+            l_che: f(self.l_che, other.l_che),
+            r_che: f(self.r_che, other.r_che),
+            r_che_factor: f(self.r_che_factor, other.r_che_factor),
+            mc_agb_start: f(self.mc_agb_start, other.mc_agb_start),
+            mc_final: f(self.mc_final, other.mc_final),
+            l_agb_tip: f(self.l_agb_tip, other.l_agb_tip),
+            ln_l_gap: f(self.ln_l_gap, other.ln_l_gap),
+            ln_r_gap: f(self.ln_r_gap, other.ln_r_gap),
+            r_white_dwarf: f(self.r_white_dwarf, other.r_white_dwarf),
+            white_dwarf_progenitor: self.white_dwarf_progenitor,
+        }
+    }
+
+    /// True when the star leaves a white dwarf.
+    pub fn white_dwarf_progenitor(&self) -> bool {
+        self.white_dwarf_progenitor
     }
 
     /// The kind reported for a burning post-main-sequence stage.
@@ -274,8 +328,8 @@ impl Track {
         let life = self.t_ms_gyr;
         if t < self.t_bgb_gyr {
             let x = ((t - self.t_ms_gyr) / (self.t_bgb_gyr - self.t_ms_gyr)).clamp(0.0, 1.0);
-            let l = self.l_tms * (self.l_bgb / self.l_tms).powf(x);
-            let r = self.r_tms * (self.r_bgb / self.r_tms).powf(x);
+            let l = self.l_tms * (x * self.ln_l_gap).exp();
+            let r = self.r_tms * (x * self.ln_r_gap).exp();
             return Body::new(self.evolved(StarKind::Subgiant), m, m, r, l, t, life);
         }
         if t < self.t_hei_gyr {
@@ -343,7 +397,17 @@ impl Track {
         let m = self.mass_msun;
         let cooling = age_gyr - self.t_end_gyr;
         if self.white_dwarf_progenitor {
-            white_dwarf_body(self.mc_final, m, cooling, age_gyr, self.t_ms_gyr)
+            let l = white_dwarf::cooling_luminosity_lsun(self.mc_final, cooling);
+            let r = self.r_white_dwarf;
+            Body::new(
+                StarKind::WhiteDwarf,
+                self.mc_final,
+                m,
+                r,
+                l,
+                age_gyr,
+                self.t_ms_gyr,
+            )
         } else if m <= thresholds.neutron_star_max_initial_msun {
             neutron_star_body(
                 neutron_star::mass_from_initial_msun(m),
@@ -439,6 +503,24 @@ pub fn main_sequence_body(mass: f64, age: f64, t_ms: f64) -> Body {
 
 /// Follows a star of this initial mass to this age (fitted fidelity).
 pub fn evolve(initial_mass_msun: f64, age_gyr: f64, thresholds: &RemnantThresholds) -> Body {
+    let m = initial_mass_msun;
+    if m < HYDROGEN_BURNING_MIN_MSUN {
+        return brown_dwarf_body(m, age_gyr);
+    }
+    if *thresholds != RemnantThresholds::default() {
+        return evolve_direct(m, age_gyr, thresholds);
+    }
+    // Fast path: interpolate the precomputed table (track_table.rs).
+    let node = track_table::main_sequence_node(m);
+    if age_gyr < node.t_ms_gyr {
+        let (l, r) = node.l_r(age_gyr);
+        return Body::new(StarKind::MainSequence, m, m, r, l, age_gyr, node.t_ms_gyr);
+    }
+    track_table::track(m).state_at(age_gyr, thresholds)
+}
+
+/// [`evolve`] straight from the formulae, without the lookup table.
+pub fn evolve_direct(initial_mass_msun: f64, age_gyr: f64, thresholds: &RemnantThresholds) -> Body {
     let m = initial_mass_msun;
     if m < HYDROGEN_BURNING_MIN_MSUN {
         return brown_dwarf_body(m, age_gyr);

@@ -138,9 +138,9 @@ impl CoreMassLuminosity {
 /// # Source
 /// Form of HPT2000 eq. 46 with our calibration (module docs).
 pub fn giant_radius_rsun(luminosity_lsun: f64, mass_msun: f64) -> f64 {
-    let a = 0.958 * mass_msun.powf(-0.33);
-    let l = luminosity_lsun;
-    (a * (l.powf(0.4) + 0.383 * l.powf(0.76))).min(MAX_GIANT_RADIUS_RSUN)
+    let ln_l = luminosity_lsun.ln();
+    let a = 0.958 * (-0.33 * mass_msun.ln()).exp();
+    (a * ((0.4 * ln_l).exp() + 0.383 * (0.76 * ln_l).exp())).min(MAX_GIANT_RADIUS_RSUN)
 }
 
 #[cfg(test)]

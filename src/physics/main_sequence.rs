@@ -240,15 +240,22 @@ pub fn tams_radius_rsun(mass_msun: f64) -> f64 {
 /// Luminosity (Lsun) and radius (Rsun) at fraction `tau` = t / t_MS of the
 /// main sequence (clamped to 0–1).
 pub fn main_sequence_l_r(mass_msun: f64, tau: f64) -> (f64, f64) {
-    let tau = tau.clamp(0.0, 1.0);
-    let tau2 = tau * tau;
-    let shape_l = A_L * tau + (1.0 - A_L) * tau2;
-    let shape_r = A_R * tau + (1.0 - A_R) * tau2;
+    let (shape_l, shape_r) = shapes(tau);
     let d_log = delta_log_l_tms(mass_msun) * shape_l;
     let d_log_r = delta_log_r_tms(mass_msun) * shape_r;
     (
         zams_luminosity_lsun(mass_msun) * (d_log * std::f64::consts::LN_10).exp(),
         zams_radius_rsun(mass_msun) * (d_log_r * std::f64::consts::LN_10).exp(),
+    )
+}
+
+/// The fractions (0–1) of ΔlogL and ΔlogR reached at `tau` = t / t_MS (clamped to 0–1).
+pub fn shapes(tau: f64) -> (f64, f64) {
+    let tau = tau.clamp(0.0, 1.0);
+    let tau2 = tau * tau;
+    (
+        A_L * tau + (1.0 - A_L) * tau2,
+        A_R * tau + (1.0 - A_R) * tau2,
     )
 }
 

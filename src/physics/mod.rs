@@ -25,6 +25,7 @@ pub mod main_sequence;
 pub mod neutron_star;
 pub mod request_limits;
 pub mod rules;
+pub mod track_table;
 pub mod white_dwarf;
 
 pub mod blackbody_color;
