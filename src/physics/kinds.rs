@@ -229,7 +229,8 @@ pub struct StarProfile {
     pub teff_k: f64,
     /// Age since formation, gigayears.
     pub age_gyr: f64,
-    /// Main-sequence lifetime for the initial mass, gigayears.
+    /// Main-sequence lifetime for the initial mass, gigayears (0 for brown
+    /// dwarfs and for remnants without a single-star progenitor).
     pub lifetime_gyr: f64,
     /// Habitable-zone edges.
     pub hz: HabitableZone,

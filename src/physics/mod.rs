@@ -11,9 +11,32 @@
 //!
 //! **Architecture invariant:** physics never sees a random-number generator.
 
+pub mod black_hole;
+pub mod brown_dwarf;
+pub mod constants;
+pub mod derived;
+pub mod effective_temperature;
+pub mod evolution;
+pub mod explicit_kind;
+pub mod giant_branch;
+pub mod habitable_host;
 pub mod kinds;
+pub mod main_sequence;
+pub mod neutron_star;
+pub mod request_limits;
+pub mod rules;
+pub mod track_table;
+pub mod white_dwarf;
 
+// Owned by the "light" engineer (placeholders on this branch).
+pub mod blackbody_color;
+pub mod habitable_zone;
+pub mod photometry;
+pub mod spectral_class;
+
+pub use evolution::RemnantThresholds;
 pub use kinds::{ClassCode, Fidelity, HabitableZone, KindChoice, StarKind, StarProfile};
+pub use request_limits::{allowed_mass_range, typical_age_gyr};
 
 use crate::units::{Gigayears, SolarMasses};
 
@@ -29,40 +52,81 @@ pub struct StarRequest {
     pub kind: KindChoice,
 }
 
-/// The complete profile of one object.
+/// The complete profile of one object, with the default remnant thresholds.
 ///
 /// # Allocations
 /// None: the profile is plain data, the class is a fixed-size code.
+///
+/// # Guarantees
+/// Every number is finite for masses and ages in the allowed ranges
+/// ([`allowed_mass_range`], 0–13.8 Gyr). Black holes have L = 0, Teff = 0,
+/// a black colour, zero habitable-zone edges and the photometry
+/// module's faint sentinel magnitude.
 pub fn star_profile(request: &StarRequest, fidelity: Fidelity) -> StarProfile {
-    evolution_placeholder(request, fidelity)
+    star_profile_with(request, fidelity, &RemnantThresholds::default())
 }
 
-// Temporary stand-in so that the rest of the crate compiles while the
-// physics core is written; replaced by the fitted and rules modules.
-fn evolution_placeholder(request: &StarRequest, _fidelity: Fidelity) -> StarProfile {
-    let m = request.mass.get();
-    let l = m.powf(3.5);
-    let r = if m < 1.0 { m.powf(0.8) } else { m.powf(0.5) };
-    let teff = 5772.0 * l.powf(0.25) / r.sqrt();
+/// [`star_profile`] with chosen initial-mass thresholds between white
+/// dwarfs, neutron stars and black holes.
+pub fn star_profile_with(
+    request: &StarRequest,
+    fidelity: Fidelity,
+    thresholds: &RemnantThresholds,
+) -> StarProfile {
+    let mass = request.mass.get();
+    let age = request.age.get();
+    let body = match (request.kind, fidelity) {
+        (KindChoice::Auto, Fidelity::Fitted) => evolution::evolve(mass, age, thresholds),
+        (KindChoice::Auto, Fidelity::Rules) => rules::evolve(mass, age, thresholds),
+        (KindChoice::Explicit(kind), _) => {
+            explicit_kind::build(kind, mass, age, fidelity, thresholds)
+        }
+    };
+    profile_from_body(&body, fidelity)
+}
+
+/// Adds classification, colour, habitable zone and magnitude to a body.
+fn profile_from_body(body: &evolution::Body, fidelity: Fidelity) -> StarProfile {
+    let (l, teff) = (body.luminosity_lsun, body.teff_k);
+    let shines = l > 0.0 && teff > 0.0;
+    let hz = if !shines {
+        HabitableZone {
+            inner_au: 0.0,
+            outer_au: 0.0,
+            optimistic_inner_au: 0.0,
+            optimistic_outer_au: 0.0,
+            teff_in_range: false,
+        }
+    } else {
+        match fidelity {
+            Fidelity::Fitted => habitable_zone::habitable_zone(teff, l),
+            Fidelity::Rules => habitable_zone::habitable_zone_rules(l),
+        }
+    };
     StarProfile {
-        kind: StarKind::MainSequence,
-        class: ClassCode::from_str_lossy("G2V"),
-        mass_msun: m,
-        initial_mass_msun: m,
-        radius_rsun: r,
+        kind: body.kind,
+        class: spectral_class::classify(body.kind, teff, l, body.mass_msun),
+        mass_msun: body.mass_msun,
+        initial_mass_msun: body.initial_mass_msun,
+        radius_rsun: body.radius_rsun,
         luminosity_lsun: l,
         teff_k: teff,
-        age_gyr: request.age.get(),
-        lifetime_gyr: 10.0 * m / l,
-        hz: HabitableZone {
-            inner_au: (l / 1.1).sqrt(),
-            outer_au: (l / 0.53).sqrt(),
-            optimistic_inner_au: (l / 1.7753).sqrt(),
-            optimistic_outer_au: (l / 0.3179).sqrt(),
-            teff_in_range: (2600.0..=7200.0).contains(&teff),
+        age_gyr: body.age_gyr,
+        lifetime_gyr: body.lifetime_gyr,
+        hz,
+        color_rgb: if shines {
+            blackbody_color::color_rgb(teff)
+        } else {
+            [0, 0, 0]
         },
-        color_rgb: [255, 255, 255],
-        abs_mag_v: 4.83 - 2.5 * l.log10(),
-        habitable_host: false,
+        abs_mag_v: photometry::abs_mag_v(body.kind, teff, l),
+        habitable_host: habitable_host::is_habitable_host(
+            body.kind,
+            body.initial_mass_msun,
+            body.age_gyr,
+        ),
     }
 }
+
+#[cfg(test)]
+mod tests;

@@ -1,0 +1,65 @@
+//! Brown dwarfs (0.013–0.075 Msun): objects that never burn hydrogen and
+//! fade as they cool.
+//!
+//! # Source
+//! - Luminosity: Burrows & Liebert 1993, Rev. Mod. Phys. 65, 301, the
+//!   cooling law `L ≈ 4e-5 Lsun (t / 1 Gyr)^-1.3 (M / 0.05 Msun)^2.64`
+//!   (opacity factor taken as 1; from memory, unverified).
+//! - Radius: about one Jupiter radius for old objects, larger when young:
+//!   `R = R_J (1 + 0.1 (t / 1 Gyr)^-1/2)`, a schematic of our own shaped on
+//!   published evolutionary tracks (common practice, no source). Ages
+//!   below 1 Myr are treated as 1 Myr, where this gives about 4 R_J.
+//! - Boundaries: hydrogen-burning limit 0.075 Msun (Baraffe et al. 1998,
+//!   A&A 337, 403), deuterium-burning limit about 13 Jupiter masses,
+//!   0.013 Msun (from memory). At 0.075 Msun a brown dwarf is much fainter
+//!   than a star of the same mass (about 1.4 dex at 4.6 Gyr): the
+//!   hydrogen-burning limit is a real jump, not a fitting artefact.
+
+use super::constants::R_JUPITER_PER_R_SUN;
+
+/// Mass range of brown dwarfs, Msun.
+pub const MASS_RANGE_MSUN: (f64, f64) = (0.013, 0.075);
+/// Youngest age used, Gyr (1 Myr).
+const MIN_AGE_GYR: f64 = 1e-3;
+
+/// Luminosity, Lsun, of a brown dwarf of this mass (Msun) and age (Gyr).
+pub fn luminosity_lsun(mass_msun: f64, age_gyr: f64) -> f64 {
+    let t = age_gyr.max(MIN_AGE_GYR);
+    4e-5 * (-1.3 * t.ln() + 2.64 * (mass_msun / 0.05).ln()).exp()
+}
+
+/// Radius, Rsun, of a brown dwarf at this age (Gyr).
+pub fn radius_rsun(age_gyr: f64) -> f64 {
+    let t = age_gyr.max(MIN_AGE_GYR);
+    (1.0 + 0.1 / t.sqrt()) / R_JUPITER_PER_R_SUN
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::physics::effective_temperature::teff_k;
+
+    #[test]
+    fn normalisation_of_the_cooling_law() {
+        // Burrows & Liebert 1993 (from memory): 4e-5 Lsun at 1 Gyr and 0.05 Msun.
+        assert!((luminosity_lsun(0.05, 1.0) / 4e-5 - 1.0).abs() < 1e-12);
+    }
+
+    #[test]
+    fn old_brown_dwarfs_are_late_l_or_t() {
+        // Mamajek table 2024.05.15 (stars.md §3 [verified]): L0V 2270 K, T0V 1255 K,
+        // Y0V 450 K; R ≈ 0.1 Rsun for L0–Y0. A 0.05 Msun object at 5 Gyr should lie in the
+        // T range (between Y0 and L0), and old radii within 15 % of 0.1 Rsun.
+        let t = teff_k(luminosity_lsun(0.05, 5.0), radius_rsun(5.0));
+        assert!((450.0..2270.0).contains(&t), "{t}");
+        assert!((radius_rsun(5.0) / 0.1 - 1.0).abs() < 0.15);
+    }
+
+    #[test]
+    fn fades_with_age_and_brighter_with_mass() {
+        assert!(luminosity_lsun(0.05, 2.0) < luminosity_lsun(0.05, 1.0));
+        assert!(luminosity_lsun(0.07, 1.0) > luminosity_lsun(0.03, 1.0));
+        assert!(radius_rsun(0.01) > radius_rsun(1.0));
+        assert!(luminosity_lsun(0.013, 0.0).is_finite());
+    }
+}
