@@ -34,9 +34,15 @@ pub mod cli;
 pub mod coords;
 pub mod error;
 pub mod physics;
+pub mod population;
 pub mod render;
+pub mod report;
+pub mod sampler;
 pub mod seed;
+pub mod spec;
 pub mod units;
 
 pub use catalogue::Catalogue;
 pub use error::{Error, Result};
+pub use sampler::{generate, write_sector};
+pub use spec::SectorSpec;

@@ -1,11 +1,17 @@
 //! The star catalogue: one `Vec` per column, plus its readers and writers.
 //!
 //! **Architecture invariant:** `Catalogue` derives no serde; each file
-//! format has its own row type.
+//! format has its own row code (`csv_format`, `jsonl`).
 
-pub mod table;
-
+pub mod csv_format;
+pub mod designations;
+pub mod jsonl;
+pub mod names;
+pub mod number_format;
 pub mod reader;
+pub mod table;
+pub mod writer;
 
 pub use reader::read_catalogue;
-pub use table::{Catalogue, CatalogueMeta, Origin, StarRow};
+pub use table::{Catalogue, CatalogueMeta, Origin, RowView, StarRow};
+pub use writer::{Format, write_catalogue};

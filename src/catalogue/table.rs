@@ -1,7 +1,7 @@
 //! Struct-of-arrays storage for a catalogue: one `Vec` per column, all the
 //! same length, rows in a fixed order (cell, then index within the cell).
 
-use crate::physics::{ClassCode, StarKind, StarProfile};
+use crate::physics::{ClassCode, HabitableZone, StarKind, StarProfile};
 
 /// Where a row came from.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
@@ -53,6 +53,27 @@ pub struct StarRow {
     /// Projected separation from the system primary, au (0 for the primary).
     pub separation_au: f64,
     /// Orbital period about the primary, days (0 for the primary).
+    pub period_days: f64,
+    /// Where the row came from.
+    pub origin: Origin,
+}
+
+/// One row by reference, as the sampler emits it and the writers format it.
+#[derive(Debug, Clone, Copy)]
+pub struct RowView<'a> {
+    /// Unique star id.
+    pub id: u64,
+    /// System id (the primary's star id).
+    pub system: u64,
+    /// Display name.
+    pub name: &'a str,
+    /// Position, light years, galactic axes.
+    pub position_ly: [f64; 3],
+    /// Physical profile.
+    pub profile: &'a StarProfile,
+    /// Separation from the primary, au.
+    pub separation_au: f64,
+    /// Orbital period about the primary, days.
     pub period_days: f64,
     /// Where the row came from.
     pub origin: Origin,
@@ -162,6 +183,87 @@ impl Catalogue {
         self.period_days.push(row.period_days);
         self.habitable_host.push(p.habitable_host);
         self.origin.push(row.origin);
+    }
+
+    /// Appends one row given by reference.
+    pub fn push_view(&mut self, row: &RowView<'_>) {
+        let p = row.profile;
+        self.id.push(row.id);
+        self.system.push(row.system);
+        self.name.push(row.name.to_string());
+        self.x_ly.push(row.position_ly[0]);
+        self.y_ly.push(row.position_ly[1]);
+        self.z_ly.push(row.position_ly[2]);
+        self.kind.push(p.kind);
+        self.class.push(p.class);
+        self.mass_msun.push(p.mass_msun);
+        self.initial_mass_msun.push(p.initial_mass_msun);
+        self.radius_rsun.push(p.radius_rsun);
+        self.luminosity_lsun.push(p.luminosity_lsun);
+        self.teff_k.push(p.teff_k);
+        self.age_gyr.push(p.age_gyr);
+        self.lifetime_gyr.push(p.lifetime_gyr);
+        self.hz_inner_au.push(p.hz.inner_au);
+        self.hz_outer_au.push(p.hz.outer_au);
+        self.color_rgb.push(p.color_rgb);
+        self.abs_mag_v.push(p.abs_mag_v);
+        self.separation_au.push(row.separation_au);
+        self.period_days.push(row.period_days);
+        self.habitable_host.push(p.habitable_host);
+        self.origin.push(row.origin);
+    }
+
+    /// Moves every row of `other` to the end of `self` (meta unchanged).
+    pub fn append(&mut self, other: &mut Catalogue) {
+        self.id.append(&mut other.id);
+        self.system.append(&mut other.system);
+        self.name.append(&mut other.name);
+        self.x_ly.append(&mut other.x_ly);
+        self.y_ly.append(&mut other.y_ly);
+        self.z_ly.append(&mut other.z_ly);
+        self.kind.append(&mut other.kind);
+        self.class.append(&mut other.class);
+        self.mass_msun.append(&mut other.mass_msun);
+        self.initial_mass_msun.append(&mut other.initial_mass_msun);
+        self.radius_rsun.append(&mut other.radius_rsun);
+        self.luminosity_lsun.append(&mut other.luminosity_lsun);
+        self.teff_k.append(&mut other.teff_k);
+        self.age_gyr.append(&mut other.age_gyr);
+        self.lifetime_gyr.append(&mut other.lifetime_gyr);
+        self.hz_inner_au.append(&mut other.hz_inner_au);
+        self.hz_outer_au.append(&mut other.hz_outer_au);
+        self.color_rgb.append(&mut other.color_rgb);
+        self.abs_mag_v.append(&mut other.abs_mag_v);
+        self.separation_au.append(&mut other.separation_au);
+        self.period_days.append(&mut other.period_days);
+        self.habitable_host.append(&mut other.habitable_host);
+        self.origin.append(&mut other.origin);
+    }
+
+    /// The physical profile of row `i`, rebuilt from the columns (the
+    /// optimistic habitable-zone edges, which are not stored, are NaN).
+    pub fn profile(&self, i: usize) -> StarProfile {
+        StarProfile {
+            kind: self.kind[i],
+            class: self.class[i],
+            mass_msun: self.mass_msun[i],
+            initial_mass_msun: self.initial_mass_msun[i],
+            radius_rsun: self.radius_rsun[i],
+            luminosity_lsun: self.luminosity_lsun[i],
+            teff_k: self.teff_k[i],
+            age_gyr: self.age_gyr[i],
+            lifetime_gyr: self.lifetime_gyr[i],
+            hz: HabitableZone {
+                inner_au: self.hz_inner_au[i],
+                outer_au: self.hz_outer_au[i],
+                optimistic_inner_au: f64::NAN,
+                optimistic_outer_au: f64::NAN,
+                teff_in_range: (2600.0..=7200.0).contains(&self.teff_k[i]),
+            },
+            color_rgb: self.color_rgb[i],
+            abs_mag_v: self.abs_mag_v[i],
+            habitable_host: self.habitable_host[i],
+        }
     }
 
     /// Position of row `i`, light years.

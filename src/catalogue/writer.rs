@@ -1,0 +1,80 @@
+//! Writing a catalogue held in memory, format chosen by extension.
+
+use super::table::{Catalogue, RowView};
+use crate::error::{Error, Result};
+use std::io::Write;
+use std::path::Path;
+
+/// A catalogue file format.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Format {
+    /// Comma-separated values with a header row.
+    Csv,
+    /// JSON Lines, one object per star.
+    Jsonl,
+}
+
+impl Format {
+    /// The format for a path's extension (`.csv` or `.jsonl`).
+    pub fn from_path(path: &Path, option: &str) -> Result<Format> {
+        match path
+            .extension()
+            .and_then(|e| e.to_str())
+            .map(|e| e.to_ascii_lowercase())
+            .as_deref()
+        {
+            Some("csv") => Ok(Format::Csv),
+            Some("jsonl") | Some("ndjson") => Ok(Format::Jsonl),
+            _ => Err(Error::invalid(
+                option,
+                path.display(),
+                "it must end in .csv or .jsonl",
+            )),
+        }
+    }
+
+    /// Appends the header (CSV only).
+    pub fn push_header(self, buf: &mut Vec<u8>) {
+        if self == Format::Csv {
+            super::csv_format::push_header(buf);
+        }
+    }
+
+    /// Appends one row.
+    #[inline]
+    pub fn push_row(self, buf: &mut Vec<u8>, row: &RowView<'_>) {
+        match self {
+            Format::Csv => super::csv_format::push_row(buf, row),
+            Format::Jsonl => super::jsonl::push_row(buf, row),
+        }
+    }
+}
+
+/// Writes `cat` to `path` (`.csv` or `.jsonl`), atomically; an existing
+/// file is kept unless `force`.
+pub fn write_catalogue(cat: &Catalogue, path: &Path, force: bool) -> Result<()> {
+    let format = Format::from_path(path, "--out")?;
+    crate::atomic_file::write_atomic(path, force, |w| {
+        let mut buf = Vec::with_capacity(1 << 20);
+        format.push_header(&mut buf);
+        for i in 0..cat.len() {
+            let profile = cat.profile(i);
+            let row = RowView {
+                id: cat.id[i],
+                system: cat.system[i],
+                name: &cat.name[i],
+                position_ly: cat.position_ly(i),
+                profile: &profile,
+                separation_au: cat.separation_au[i],
+                period_days: cat.period_days[i],
+                origin: cat.origin[i],
+            };
+            format.push_row(&mut buf, &row);
+            if buf.len() > (1 << 20) - 4096 {
+                w.write_all(&buf)?;
+                buf.clear();
+            }
+        }
+        w.write_all(&buf)
+    })
+}

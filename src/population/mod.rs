@@ -1,0 +1,143 @@
+//! Population synthesis: what each system holds.
+//!
+//! For one system (given its seed key) this draws the primary's initial
+//! mass from the IMF, the number of companions and their mass ratios and
+//! orbits, one age for the whole system, evolves every member through
+//! [`crate::physics::star_profile`] and removes neutron stars and black
+//! holes that natal kicks carried away. White dwarfs, giants and remnants
+//! are not imposed: they follow from mass and age.
+//!
+//! **Architecture invariant:** all random draws of a system come from one
+//! generator seeded by (universe seed, system key), in a fixed order, so a
+//! system is the same whatever region or thread produced it.
+
+pub mod initial_mass_function;
+pub mod multiplicity;
+pub mod remnants;
+pub mod star_ages;
+
+use crate::physics::{KindChoice, StarKind, StarProfile, StarRequest, star_profile};
+use crate::seed::{Stream, rng_for};
+use crate::spec::PopulationModel;
+use crate::units::{Gigayears, SolarMasses};
+use initial_mass_function::{Imf, MIN_MASS_MSUN};
+use star_ages::AgeModel;
+
+/// Most members a system can have (primary + companions).
+pub const MAX_MEMBERS: usize = 1 + multiplicity::MAX_COMPANIONS;
+
+/// One member of a system.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Member {
+    /// Slot in the system as drawn (0 = primary), kept when others are removed.
+    pub slot: u8,
+    /// Physical profile.
+    pub profile: StarProfile,
+    /// Semi-major axis of the orbit about the primary, au (0 for the primary).
+    pub separation_au: f64,
+    /// Orbital period about the primary, days (0 for the primary).
+    pub period_days: f64,
+}
+
+/// A resolved population model, ready to draw systems.
+#[derive(Debug, Clone)]
+pub struct Population {
+    model: PopulationModel,
+    imf: Imf,
+    ages: AgeModel,
+}
+
+impl Population {
+    /// Prepares the IMF and age model of `model`.
+    pub fn new(model: &PopulationModel) -> Population {
+        Population {
+            model: *model,
+            imf: Imf::new(model.imf),
+            ages: AgeModel::new(model.ages_gyr[0], model.ages_gyr[1]),
+        }
+    }
+
+    /// The model this population draws from.
+    pub fn model(&self) -> &PopulationModel {
+        &self.model
+    }
+
+    /// Draws the system with key `system_key` into `out` (cleared first),
+    /// primary first.
+    ///
+    /// # Allocations
+    /// None once `out` has capacity [`MAX_MEMBERS`].
+    pub fn draw_system(&self, seed: u64, system_key: u64, out: &mut Vec<Member>) {
+        out.clear();
+        let mut rng = rng_for(seed, system_key, Stream::System);
+        let m1 = self.imf.sample(&mut rng);
+        let age = self.ages.sample(&mut rng);
+        let n_comp = multiplicity::draw_companion_count(m1, &mut rng);
+        let mut masses = [m1, 0.0, 0.0, 0.0];
+        let mut orbits = [(0.0, 0.0); MAX_MEMBERS];
+        for c in 1..=n_comp {
+            let q = multiplicity::draw_mass_ratio(m1, MIN_MASS_MSUN, &mut rng);
+            masses[c] = (q * m1).max(MIN_MASS_MSUN);
+            orbits[c] = multiplicity::draw_orbit(m1, masses[c], &mut rng);
+        }
+        for slot in 0..=n_comp {
+            let profile = self.evolve(masses[slot], age);
+            if !self.model.keep_remnants
+                && matches!(profile.kind, StarKind::NeutronStar | StarKind::BlackHole)
+                && !remnants::stays_after_kick(profile.mass_msun, &mut rng)
+            {
+                continue;
+            }
+            out.push(Member {
+                slot: slot as u8,
+                profile,
+                separation_au: orbits[slot].1,
+                period_days: orbits[slot].0,
+            });
+        }
+    }
+
+    /// Evolves a star of initial mass `mass_msun` to `age_gyr`.
+    pub fn evolve(&self, mass_msun: f64, age_gyr: f64) -> StarProfile {
+        let mass = SolarMasses::new(mass_msun)
+            .or(SolarMasses::new(MIN_MASS_MSUN))
+            .expect("the lowest mass is a positive constant");
+        let age = Gigayears::new(age_gyr.clamp(0.0, crate::units::UNIVERSE_AGE_GYR))
+            .or(Gigayears::new(0.0))
+            .expect("zero is a valid age");
+        star_profile(
+            &StarRequest {
+                mass,
+                age,
+                kind: KindChoice::Auto,
+            },
+            self.model.fidelity,
+        )
+    }
+
+    /// Mean number of stars (not brown dwarfs, after kicks) per system,
+    /// estimated from a fixed, seed-independent sample of 65 536 systems
+    /// drawn through [`Population::draw_system`] itself, so the sampler's
+    /// system counts reproduce the requested star density. Its relative
+    /// standard error is about 0.15 %.
+    pub fn mean_stars_per_system(&self) -> f64 {
+        use rayon::prelude::*;
+        const N: u64 = 1 << 16;
+        const CALIBRATION_SEED: u64 = 0x5EED_CA11_B8A7_E000;
+        let stars: u64 = (0..64u64)
+            .into_par_iter()
+            .map_init(
+                || Vec::with_capacity(MAX_MEMBERS),
+                |buf, chunk| {
+                    let mut n = 0u64;
+                    for i in chunk * (N / 64)..(chunk + 1) * (N / 64) {
+                        self.draw_system(CALIBRATION_SEED, i, buf);
+                        n += buf.iter().filter(|m| m.profile.kind.is_star()).count() as u64;
+                    }
+                    n
+                },
+            )
+            .sum();
+        (stars as f64 / N as f64).max(1e-3)
+    }
+}

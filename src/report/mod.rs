@@ -1,0 +1,137 @@
+//! Sector summary statistics: counts by kind and class, stars and
+//! systems, density, multiplicity, habitable-host candidates and
+//! nearest-neighbour distances between systems.
+
+use crate::catalogue::Catalogue;
+use crate::physics::StarKind;
+use serde::Serialize;
+use std::collections::BTreeMap;
+
+/// The summary of one catalogue (serialised as the `summary --json` output).
+#[derive(Debug, Clone, Serialize, PartialEq)]
+pub struct Summary {
+    /// Rows (stars, remnants and brown dwarfs).
+    pub objects: u64,
+    /// Rows that are not brown dwarfs.
+    pub stars: u64,
+    /// Brown dwarfs.
+    pub brown_dwarfs: u64,
+    /// Systems.
+    pub systems: u64,
+    /// Kind name → count.
+    pub by_kind: BTreeMap<String, u64>,
+    /// Main-sequence class letter → count.
+    pub main_sequence_by_class: BTreeMap<String, u64>,
+    /// Volume used for densities, cubic light years (the bounding box of
+    /// the positions unless the caller gives the sector's own volume).
+    pub volume_ly3: f64,
+    /// Stars per cubic light year.
+    pub star_density_per_ly3: f64,
+    /// Share of systems with more than one member.
+    pub multiplicity_fraction: f64,
+    /// Mean companions per system.
+    pub companions_per_system: f64,
+    /// Stars flagged as habitable-host candidates (a simplified model).
+    pub habitable_hosts: u64,
+    /// Mean nearest-neighbour distance between systems, light years.
+    pub nearest_neighbour_mean_ly: f64,
+    /// Median nearest-neighbour distance between systems, light years.
+    pub nearest_neighbour_median_ly: f64,
+    /// Poisson expectation of the mean, 0.55396 n^(-1/3) for system
+    /// density n (Chandrasekhar 1943; shared/science stars.md §5), light years.
+    pub nearest_neighbour_poisson_mean_ly: f64,
+}
+
+/// Summarises `cat`; `volume_ly3` overrides the bounding-box volume.
+pub fn summarise(cat: &Catalogue, volume_ly3: Option<f64>) -> Summary {
+    let mut by_kind = BTreeMap::new();
+    let mut by_class = BTreeMap::new();
+    let (mut stars, mut bds, mut hab) = (0u64, 0u64, 0u64);
+    for i in 0..cat.len() {
+        let k = cat.kind[i];
+        *by_kind.entry(k.as_str().to_string()).or_insert(0) += 1;
+        if k == StarKind::BrownDwarf {
+            bds += 1;
+        } else {
+            stars += 1;
+        }
+        if k == StarKind::MainSequence {
+            *by_class
+                .entry(cat.class[i].letter().to_string())
+                .or_insert(0) += 1;
+        }
+        hab += cat.habitable_host[i] as u64;
+    }
+    let ranges = cat.system_ranges();
+    let systems = ranges.len() as u64;
+    let multiples = ranges.iter().filter(|r| r.len() > 1).count() as u64;
+    let volume = volume_ly3.unwrap_or_else(|| {
+        let span = |v: &[f64]| {
+            let lo = v.iter().cloned().fold(f64::INFINITY, f64::min);
+            let hi = v.iter().cloned().fold(f64::NEG_INFINITY, f64::max);
+            (hi - lo).max(0.0)
+        };
+        span(&cat.x_ly) * span(&cat.y_ly) * span(&cat.z_ly)
+    });
+    let points: Vec<[f64; 3]> = ranges.iter().map(|r| cat.position_ly(r.start)).collect();
+    let mut nn = nearest_neighbour_distances(&points);
+    nn.sort_by(f64::total_cmp);
+    let mean = if nn.is_empty() {
+        f64::NAN
+    } else {
+        nn.iter().sum::<f64>() / nn.len() as f64
+    };
+    let median = if nn.is_empty() {
+        f64::NAN
+    } else {
+        nn[nn.len() / 2]
+    };
+    let n_sys = systems as f64 / volume;
+    Summary {
+        objects: cat.len() as u64,
+        stars,
+        brown_dwarfs: bds,
+        systems,
+        by_kind,
+        main_sequence_by_class: by_class,
+        volume_ly3: volume,
+        star_density_per_ly3: stars as f64 / volume,
+        multiplicity_fraction: if systems > 0 {
+            multiples as f64 / systems as f64
+        } else {
+            0.0
+        },
+        companions_per_system: if systems > 0 {
+            (cat.len() as u64 - systems) as f64 / systems as f64
+        } else {
+            0.0
+        },
+        habitable_hosts: hab,
+        nearest_neighbour_mean_ly: mean,
+        nearest_neighbour_median_ly: median,
+        nearest_neighbour_poisson_mean_ly: 0.553_96 * n_sys.powf(-1.0 / 3.0),
+    }
+}
+
+/// Distance from each point to its nearest other point, light years.
+pub fn nearest_neighbour_distances(points: &[[f64; 3]]) -> Vec<f64> {
+    use kiddo::{ImmutableKdTree, SquaredEuclidean};
+    use rayon::prelude::*;
+    if points.len() < 2 {
+        return Vec::new();
+    }
+    let Ok(tree) = ImmutableKdTree::<f64, 3>::new_from_slice_parallel(points) else {
+        return Vec::new();
+    };
+    let two = std::num::NonZeroUsize::new(2).expect("2 is not zero");
+    points
+        .par_iter()
+        .map(|p| {
+            let res = tree
+                .query(p)
+                .nearest_n::<SquaredEuclidean<f64>>(two)
+                .execute();
+            res.get(1).map(|r| r.distance.sqrt()).unwrap_or(f64::NAN)
+        })
+        .collect()
+}
