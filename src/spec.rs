@@ -291,9 +291,8 @@ impl SectorSpec {
         }
         let limit = crate::sampler::cells::MAX_ABS_COORD_LY;
         let h = self.shape.half_extent_ly();
-        for i in 0..3 {
-            let c = self.centre_ly[i];
-            if !c.is_finite() || c.abs() + h[i] > limit {
+        for (&c, &h_i) in self.centre_ly.iter().zip(h.iter()) {
+            if !c.is_finite() || c.abs() + h_i > limit {
                 return Err(Error::invalid(
                     "--centre",
                     format!(

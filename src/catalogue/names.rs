@@ -32,13 +32,13 @@ pub fn system_name(seed: u64, system_key: u64, out: &mut String) {
     for s in 0..syllables {
         let r: u32 = rng.random();
         // The first syllable starts with a vowel one time in eight.
-        if !(s == 0 && r % 8 == 0) {
+        if !(s == 0 && r.is_multiple_of(8)) {
             out.push_str(ONSETS[(r >> 3) as usize % ONSETS.len()]);
         }
         out.push_str(VOWELS[(r >> 8) as usize % VOWELS.len()]);
         // Codas only on the last syllable or, rarely, inside.
         let coda = CODAS[(r >> 12) as usize % CODAS.len()];
-        if s + 1 == syllables || (r >> 20) % 4 == 0 {
+        if s + 1 == syllables || (r >> 20).is_multiple_of(4) {
             out.push_str(coda);
         }
     }

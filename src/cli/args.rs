@@ -17,8 +17,10 @@ pub struct Cli {
     pub command: Command,
 }
 
-/// The subcommands.
+/// The subcommands. Each is parsed once per run, so the size difference
+/// between variants does not matter.
 #[derive(Debug, Subcommand)]
+#[allow(clippy::large_enum_variant)]
 pub enum Command {
     /// Profile of one star from its mass (and age).
     Star(super::star::StarArgs),
