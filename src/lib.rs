@@ -32,6 +32,7 @@ pub mod atomic_file;
 pub mod catalogue;
 pub mod cli;
 pub mod coords;
+pub mod demo;
 pub mod error;
 pub mod physics;
 pub mod population;
