@@ -13,7 +13,7 @@ use crate::spec::{SectorSpec, Shape};
 use std::path::{Path, PathBuf};
 
 /// Seed of the demo sector (chosen once; any value works).
-pub const DEMO_SEED: u64 = 7_301_2026;
+pub const DEMO_SEED: u64 = 73_012_026;
 /// Radius of the demo sector, light years.
 pub const DEMO_RADIUS_LY: f64 = 60.0;
 /// Title of the demo sector.
