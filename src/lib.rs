@@ -38,6 +38,7 @@ pub mod physics;
 pub mod population;
 pub mod render;
 pub mod report;
+pub mod routes;
 pub mod sampler;
 pub mod seed;
 pub mod spec;
