@@ -20,6 +20,10 @@ pub const DEMO_RADIUS_LY: f64 = 60.0;
 pub const DEMO_TITLE: &str = "Amberline Reach";
 /// The scenario's colony world orbits this star (a pinned system).
 pub const COLONY_STAR: &str = "Quillon";
+/// Jump range of the demo's travel network, light years.
+pub const DEMO_JUMP_LY: f64 = 7.0;
+/// The demo's sample route: from the colony's star to the giant.
+pub const DEMO_ROUTE: (&str, &str) = ("Quillon", "The Tollgate");
 /// The hand-placed systems of the scenario (the `--pin` format).
 pub const DEMO_PINS_CSV: &str = include_str!("../assets/demo/amberline_pins.csv");
 
@@ -90,7 +94,7 @@ pub fn write_demo(dir: &Path, progress: &(dyn Fn(u64, u64) + Sync)) -> Result<De
         path: dir.to_path_buf(),
         message: e.to_string(),
     })?;
-    let total = 4;
+    let total = 5;
     progress(0, total);
 
     let pin_file = dir.join("amberline_pins.csv");
@@ -170,6 +174,86 @@ pub fn write_demo(dir: &Path, progress: &(dyn Fn(u64, u64) + Sync)) -> Result<De
         report.files.push(json);
     }
     progress(3, total);
+
+    write_routes(dir, &cat, &mut report)?;
     progress(total, total);
     Ok(report)
+}
+
+/// The travel network of the demo sector: links, lanes, its summary and a
+/// sample itinerary.
+fn write_routes(dir: &Path, cat: &Catalogue, report: &mut DemoReport) -> Result<()> {
+    use crate::routes::{JumpNetwork, RouteBy, Systems, resolve_system, shortest_route};
+    let systems = Systems::from_catalogue(cat);
+    let network = JumpNetwork::build(&systems.positions_ly, DEMO_JUMP_LY);
+    let forest = network.spanning_forest();
+    let links_path = dir.join("amberline_links.csv");
+    crate::atomic_file::write_atomic(&links_path, true, |w| {
+        crate::routes::write_links_csv(w, &systems, &network.links)
+    })?;
+    report.files.push(links_path);
+    let lanes_path = dir.join("amberline_lanes.csv");
+    crate::atomic_file::write_atomic(&lanes_path, true, |w| {
+        crate::routes::write_links_csv(
+            w,
+            &systems,
+            forest.lanes.iter().map(|&k| &network.links[k as usize]),
+        )
+    })?;
+    report.files.push(lanes_path);
+    let summary = network.summary(&forest);
+    let json_path = dir.join("amberline_network.json");
+    let mut json = serde_json::to_string_pretty(&summary).unwrap_or_default();
+    json.push('\n');
+    crate::atomic_file::write_bytes(&json_path, true, json.as_bytes())?;
+    report.files.push(json_path);
+
+    // A sample itinerary, by fewest jumps.
+    let from = resolve_system(cat, DEMO_ROUTE.0)?;
+    let to = resolve_system(cat, DEMO_ROUTE.1)?;
+    let (Some(a), Some(b)) = (
+        systems.index_of_id(from.system_id),
+        systems.index_of_id(to.system_id),
+    ) else {
+        return Ok(());
+    };
+    let adjacency = network.adjacency();
+    let mut text = format!(
+        "From {} to {} with a jump range of {DEMO_JUMP_LY} ly, fewest jumps:\n",
+        DEMO_ROUTE.0, DEMO_ROUTE.1
+    );
+    match shortest_route(
+        &adjacency,
+        &systems.positions_ly,
+        a,
+        b,
+        RouteBy::Jumps,
+        &|_| true,
+    ) {
+        Some(route) => {
+            for (k, &s) in route.systems.iter().enumerate() {
+                let row = systems.primary_rows[s as usize];
+                let leg = if k == 0 {
+                    "start".to_string()
+                } else {
+                    format!("{:>6.2} ly", route.legs_ly[k - 1])
+                };
+                text.push_str(&format!(
+                    "  {leg:>9}  {} ({})\n",
+                    cat.name[row],
+                    cat.class[row].as_str()
+                ));
+            }
+            text.push_str(&format!(
+                "{} jumps, {:.2} ly in all\n",
+                route.jumps(),
+                route.distance_ly
+            ));
+        }
+        None => text.push_str("  no route: the two systems lie in different regions\n"),
+    }
+    let route_path = dir.join("amberline_route.txt");
+    crate::atomic_file::write_bytes(&route_path, true, text.as_bytes())?;
+    report.files.push(route_path);
+    Ok(())
 }

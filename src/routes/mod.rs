@@ -150,7 +150,11 @@ pub fn resolve_system(cat: &Catalogue, text: &str) -> Result<SystemMatch> {
             suggestion: suggestion_clause(&close_names(cat, &lower)),
         }),
         n => {
-            let ids: Vec<String> = found.iter().take(5).map(|m| m.system_id.to_string()).collect();
+            let ids: Vec<String> = found
+                .iter()
+                .take(5)
+                .map(|m| m.system_id.to_string())
+                .collect();
             let more = if n > 5 { ", ..." } else { "" };
             Err(Error::Usage(format!(
                 "the name '{t}' belongs to {n} systems (ids {}{more}); give a system id instead",

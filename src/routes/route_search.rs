@@ -185,11 +185,7 @@ pub fn connecting_jump_ly(
         };
         let labels = uf.clone().into_labeling();
         let mut pairs = index.pairs_within(next_ly, &|i, j| labels[i] != labels[j]);
-        pairs.sort_unstable_by(|x, y| {
-            x.2.total_cmp(&y.2)
-                .then(x.0.cmp(&y.0))
-                .then(x.1.cmp(&y.1))
-        });
+        pairs.sort_unstable_by(|x, y| x.2.total_cmp(&y.2).then(x.0.cmp(&y.0)).then(x.1.cmp(&y.1)));
         for (i, j, d) in pairs {
             if uf.union(i, j) && uf.equiv(a, b) {
                 return d;
