@@ -38,7 +38,8 @@ pub struct Summary {
     /// Median nearest-neighbour distance between systems, light years.
     pub nearest_neighbour_median_ly: f64,
     /// Poisson expectation of the mean, 0.55396 n^(-1/3) for system
-    /// density n (Chandrasekhar 1943; shared/science stars.md §5), light years.
+    /// density n (Chandrasekhar 1943, Rev. Mod. Phys. 15, 1, from memory;
+    /// coefficient Γ(4/3)(3/(4π))^(1/3) derived), light years.
     pub nearest_neighbour_poisson_mean_ly: f64,
 }
 
