@@ -1,5 +1,8 @@
 //! Integration tests, compiled as one binary: one module per area.
 
 mod cli_star;
+mod render_hr;
+mod render_output;
+mod render_raster;
 mod tidy;
 mod util;
