@@ -2,6 +2,9 @@
 
 mod cli_routes;
 mod cli_star;
+mod render_hr;
+mod render_output;
+mod render_raster;
 mod routes;
 mod tidy;
 mod util;
