@@ -20,6 +20,8 @@ pub const DEMO_RADIUS_LY: f64 = 60.0;
 pub const DEMO_TITLE: &str = "Amberline Reach";
 /// The scenario's colony world orbits this star (a pinned system).
 pub const COLONY_STAR: &str = "Quillon";
+/// Resolution of the demo's raster sheets, dots per inch.
+pub const DEMO_DPI: f32 = 150.0;
 /// Jump range of the demo's travel network, light years.
 pub const DEMO_JUMP_LY: f64 = 7.0;
 /// The demo's sample route: from the colony's star to the giant.
@@ -176,6 +178,12 @@ pub fn write_demo(dir: &Path, progress: &(dyn Fn(u64, u64) + Sync)) -> Result<De
     progress(3, total);
 
     write_routes(dir, &cat, &mut report)?;
+
+    // The sector's stars on a Hertzsprung–Russell diagram.
+    let hr_path = dir.join("amberline_hr.png");
+    let hr = crate::render::hr_diagram::hr_scene(&cat, crate::render::paper::Theme::Print);
+    crate::render::output::write_scenes(&[hr], &hr_path, DEMO_DPI, true)?;
+    report.files.push(hr_path);
     progress(total, total);
     Ok(report)
 }
