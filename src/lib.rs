@@ -39,6 +39,7 @@ pub mod render;
 pub mod report;
 pub mod sampler;
 pub mod seed;
+pub mod sky;
 pub mod spec;
 pub mod units;
 
