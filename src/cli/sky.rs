@@ -3,6 +3,7 @@
 use crate::error::Error;
 use crate::render::paper::{Paper, Theme};
 use crate::sky::{self, ChartOptions, SkyOptions, SkyView};
+use std::io::Write;
 use std::path::{Path, PathBuf};
 use std::process::ExitCode;
 
@@ -217,9 +218,10 @@ fn round(x: f64, decimals: i32) -> f64 {
     (x * p).round() / p
 }
 
-fn print_table(view: &SkyView) {
+fn print_table(view: &SkyView, w: &mut impl Write) -> std::io::Result<()> {
     let o = &view.observer;
-    println!(
+    writeln!(
+        w,
         "The sky from {} (system {}): {} stars brighter than V {}, {} fainter",
         o.name,
         o.system,
@@ -227,20 +229,23 @@ fn print_table(view: &SkyView) {
         view.options.limit_mag,
         view.fainter_count()
     );
-    println!(
+    writeln!(
+        w,
         "{:<24} {:>8} {:>9} {:>8} {:>12}",
         "name", "V mag", "l deg", "b deg", "distance"
-    );
+    )?;
     for s in view.visible() {
         let distance = match s.separation_au {
             Some(au) => format!("{au:.3} au"),
             None => format!("{:.2} ly", s.distance_ly),
         };
-        println!(
+        writeln!(
+            w,
             "{:<24} {:>8.2} {:>9.2} {:>8.2} {:>12}",
             s.name, s.apparent_mag, s.l_deg, s.b_deg, distance
-        );
+        )?;
     }
+    Ok(())
 }
 
 /// Runs `starloom sky`.
@@ -258,16 +263,19 @@ pub fn run(args: SkyArgs) -> anyhow::Result<ExitCode> {
             Output::Chart(p) => write_chart(&view, &s, p, args.force)?,
         }
     }
+    let mut stdout = std::io::BufWriter::new(std::io::stdout().lock());
     if args.json {
-        println!("{}", serde_json::to_string_pretty(&view_json(&view))?);
+        let text = serde_json::to_string_pretty(&view_json(&view))?;
+        writeln!(stdout, "{text}")?;
     } else if s.outputs.is_empty() {
-        print_table(&view);
+        print_table(&view, &mut stdout)?;
     } else {
         for out in &s.outputs {
             let (Output::Csv(p) | Output::Chart(p)) = out;
             eprintln!("wrote {}", p.display());
         }
     }
+    stdout.flush()?;
     Ok(ExitCode::SUCCESS)
 }
 
