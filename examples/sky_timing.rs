@@ -40,7 +40,7 @@ fn main() {
             1000.0 * next() - 500.0,
             1000.0 * next() - 500.0,
         ];
-        let p = profiles[(i % profiles.len() as u64) as usize].clone();
+        let p = profiles[(i % profiles.len() as u64) as usize];
         cat.push(StarRow {
             id: i + 1,
             system: i + 1,

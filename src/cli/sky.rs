@@ -228,7 +228,7 @@ fn print_table(view: &SkyView, w: &mut impl Write) -> std::io::Result<()> {
         view.visible_count,
         view.options.limit_mag,
         view.fainter_count()
-    );
+    )?;
     writeln!(
         w,
         "{:<24} {:>8} {:>9} {:>8} {:>12}",

@@ -167,7 +167,7 @@ impl SkyView {
 /// always gets the same direction. Companions sit at their separation in
 /// this direction from their primary.
 pub fn companion_direction(id: u64) -> [f64; 3] {
-    let a = splitmix64(id ^ 0x5EED_F5C1_E5);
+    let a = splitmix64(id ^ 0x005E_EDF5_C1E5);
     let b = splitmix64(a);
     let u = (a >> 11) as f64 / (1u64 << 53) as f64;
     let v = (b >> 11) as f64 / (1u64 << 53) as f64;

@@ -232,6 +232,8 @@ pub fn equirectangular_inverse(x: f64, y: f64) -> Option<(f64, f64)> {
 }
 
 #[cfg(test)]
+// Check values are kept with the digits the reference library printed.
+#[allow(clippy::approx_constant)]
 mod tests {
     use super::*;
 
