@@ -2,5 +2,8 @@
 
 mod cli_sky;
 mod cli_star;
+mod render_hr;
+mod render_output;
+mod render_raster;
 mod tidy;
 mod util;
