@@ -98,10 +98,9 @@ pub fn dot_radius_mm(mag: f64, limit_mag: f64, r_min_mm: f32, r_max_mm: f32) -> 
     r_min_mm + t * (r_max_mm - r_min_mm)
 }
 
-/// Estimated width of a line of text, mm: 0.52 em per character, about
-/// the mean advance of a sans-serif face (an estimate, not a measurement).
-pub fn estimate_text_width_mm(text: &str, size_pt: f32) -> f32 {
-    text.chars().count() as f32 * 0.52 * size_pt * MM_PER_PT
+/// Width of a line of regular text, mm, measured with the chart font.
+pub fn text_width_mm(text: &str, size_pt: f32) -> f32 {
+    crate::render::text::text_width_mm(text, size_pt, false)
 }
 
 /// Page frame of the chart: centre and scale (mm per projection unit).
@@ -393,7 +392,7 @@ pub fn sky_chart(view: &SkyView, opts: &ChartOptions) -> Scene {
     for &(i, p, r) in placed.iter().take(opts.labels) {
         let s = &view.stars[i];
         let label = label_of(s);
-        let tw = estimate_text_width_mm(&label, label_pt);
+        let tw = text_width_mm(&label, label_pt);
         let th = label_pt * MM_PER_PT;
         let x0 = p[0] + r + 0.6;
         let base = p[1] + th * 0.35;
@@ -475,7 +474,7 @@ pub fn sky_chart(view: &SkyView, opts: &ChartOptions) -> Scene {
         Anchor::Start,
         true,
     ));
-    x += estimate_text_width_mm("Apparent magnitude", small_pt) + 4.0;
+    x += crate::render::text::text_width_mm("Apparent magnitude", small_pt, true) + 4.0;
     let first = BRIGHT_KEY_MAG.ceil() as i32;
     let last = limit.floor() as i32;
     let mut key_centres = Vec::new();
