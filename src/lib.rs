@@ -41,6 +41,7 @@ pub mod report;
 pub mod routes;
 pub mod sampler;
 pub mod seed;
+pub mod sky;
 pub mod spec;
 pub mod units;
 

@@ -1,6 +1,7 @@
 //! Integration tests, compiled as one binary: one module per area.
 
 mod cli_routes;
+mod cli_sky;
 mod cli_star;
 mod render_hr;
 mod render_output;
