@@ -1,5 +1,11 @@
 //! Integration tests, compiled as one binary: one module per area.
 
 mod cli_star;
+mod sector_census;
+mod sector_cli;
+mod sector_determinism;
+mod sector_reader;
+mod sector_spec;
+mod sector_tiling;
 mod tidy;
 mod util;
