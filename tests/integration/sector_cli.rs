@@ -339,6 +339,13 @@ fn sector_bad_input_gets_one_sentence_and_exit_code_two() {
         (vec!["--sphere", "-3"], "--sphere"),
         (vec!["--cylinder", "10,0"], "--cylinder"),
         (vec!["--sphere", "5parsecs"], "5parsecs"),
+        // Beyond the id scheme's ±320 000 ly: the shape's option is named.
+        (vec!["--sphere", "1000000"], "--sphere"),
+        (vec!["--box", "10,700000,10"], "--box"),
+        (
+            vec!["--sphere", "10", "--centre", "-400000,0,0"],
+            "--centre",
+        ),
         (vec!["--sphere", "10", "--density", "0"], "--density"),
         (vec!["--sphere", "10", "--density", "-0.1"], "--density"),
         (vec!["--sphere", "10", "--density", "inf"], "--density"),
