@@ -113,6 +113,8 @@ fn sector_census_main_sequence_class_shares() {
         ('F', 2.4e-3),
         ('A', 4.9e-4),
     ];
+    // For M only the lower bound can bite (1.5 × 80 % exceeds 100 %); the
+    // others are bounded on both sides.
     let total: f64 = dwarfs.iter().map(|(_, d)| d).sum::<f64>() + 3.2e-5;
     for (class, density) in dwarfs {
         let observed = density / total;

@@ -188,6 +188,9 @@ fn sector_disk_thins_out_with_height() {
         // System counts are Poisson (the sampler draws Poisson systems per
         // cell), so σ(ratio)/ratio = sqrt(1/n + 1/low); 4σ.
         let tol = 4.0 * ratio * (1.0 / n + 1.0 / low).sqrt();
+        eprintln!(
+            "disk at {name}: {n} / {low} systems = {ratio:.4} (Jurić {expect:.4} ± {tol:.4})"
+        );
         assert!(
             (ratio - expect).abs() < tol,
             "{name}: ratio {ratio:.4} vs Jurić {expect:.4} ± {tol:.4} ({n} vs {low} systems)"
@@ -242,6 +245,9 @@ fn sector_ages_imf_and_remnant_options() {
     let kirk = bd_share("kirkpatrick");
     let kroupa = bd_share("kroupa");
     let chab = bd_share("chabrier");
+    eprintln!(
+        "brown-dwarf share of objects: kirkpatrick {kirk:.4}, kroupa {kroupa:.4}, chabrier {chab:.4}"
+    );
     assert!(
         kroupa > kirk + 0.05 && chab > kroupa + 0.03,
         "{kirk} {kroupa} {chab}"
@@ -262,6 +268,7 @@ fn sector_ages_imf_and_remnant_options() {
     };
     let kept = compact(&["--keep-remnants"], "kept.csv");
     let kicked = compact(&[], "kicked.csv");
+    eprintln!("neutron stars and black holes: {kept} kept, {kicked} after kicks");
     assert!(
         kept >= 10 && kicked * 3 < kept,
         "kept {kept}, kicked {kicked}"
@@ -310,6 +317,10 @@ fn sector_summary_json_agrees_with_the_csv() {
     assert_eq!(as_map("by_kind"), kinds);
     assert_eq!(as_map("main_sequence_by_class"), classes);
     assert_eq!(kinds.values().sum::<u64>(), n("objects"));
+    // The density uses the sector's own volume from the sidecar, 90·60·60 ly³.
+    let f = |k: &str| v[k].as_f64().unwrap_or_else(|| panic!("key {k}"));
+    assert_eq!(f("volume_ly3"), 324_000.0);
+    assert!((f("star_density_per_ly3") - n("stars") as f64 / 324_000.0).abs() < 1e-12);
 }
 
 /// Asserts a user error and that neither the output nor its sidecar exists.
