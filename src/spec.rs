@@ -292,6 +292,25 @@ impl SectorSpec {
         }
         let limit = crate::sampler::cells::MAX_ABS_COORD_LY;
         let h = self.shape.half_extent_ly();
+        if h.iter().any(|&h_i| h_i > limit) {
+            // The shape alone is too large: name the shape's option, not the centre.
+            let (option, value) = match self.shape {
+                Shape::Box { size_ly } => (
+                    "--box",
+                    format!("{},{},{}", size_ly[0], size_ly[1], size_ly[2]),
+                ),
+                Shape::Sphere { radius_ly } => ("--sphere", format!("{radius_ly}")),
+                Shape::Cylinder {
+                    radius_ly,
+                    height_ly,
+                } => ("--cylinder", format!("{radius_ly},{height_ly}")),
+            };
+            return Err(Error::invalid(
+                option,
+                value,
+                format!("the volume must lie within {limit} ly of the origin on every axis"),
+            ));
+        }
         for (&c, &h_i) in self.centre_ly.iter().zip(h.iter()) {
             if !c.is_finite() || c.abs() + h_i > limit {
                 return Err(Error::invalid(
