@@ -184,6 +184,17 @@ pub fn write_demo(dir: &Path, progress: &(dyn Fn(u64, u64) + Sync)) -> Result<De
     let hr = crate::render::hr_diagram::hr_scene(&cat, crate::render::paper::Theme::Print);
     crate::render::output::write_scenes(&[hr], &hr_path, DEMO_DPI, true)?;
     report.files.push(hr_path);
+
+    // The night sky from the colony world's star.
+    let observer = crate::sky::find_observer(&cat, COLONY_STAR)?;
+    let view = crate::sky::sky_view(&cat, observer, &crate::sky::SkyOptions::default());
+    let sky_csv = dir.join("quillon_sky.csv");
+    crate::sky::write_sky_csv(&view, &sky_csv, true)?;
+    report.files.push(sky_csv);
+    let chart = crate::sky::chart::sky_chart(&view, &crate::sky::chart::ChartOptions::default());
+    let sky_png = dir.join("quillon_sky.png");
+    crate::render::output::write_scenes(&[chart], &sky_png, DEMO_DPI, true)?;
+    report.files.push(sky_png);
     progress(total, total);
     Ok(report)
 }
