@@ -582,7 +582,7 @@ mod tests {
     }
 
     #[test]
-    fn example_from_the_issue() {
+    fn a_1_5_msun_star_at_12_gyr_is_a_white_dwarf() {
         // Worked example: 1.5 Msun at 12 Gyr is a white dwarf of about 0.6 Msun, initial 1.5
         // (Cummings et al. 2018 MIST fit: 0.609; derived).
         let wd = at(1.5, 12.0);

@@ -333,7 +333,7 @@ fn rules_fidelity_profiles() {
 }
 
 #[test]
-fn the_issue_example_as_a_profile() {
+fn a_1_5_msun_star_at_12_gyr_as_a_profile() {
     // Worked example: a 1.5 Msun star at 12 Gyr is a white dwarf of about 0.6 Msun,
     // initial 1.5 (Cummings et al. 2018, ApJ 866, 21, MIST fit: 0.609; derived).
     let p = profile(1.5, 12.0, KindChoice::Auto, Fidelity::Fitted);
