@@ -4,7 +4,7 @@
 //! [`sampler`] decides where systems are, cell by cell, from the seed
 //! alone; [`population`] draws each system's members, masses and ages and
 //! evolves them through [`physics`]; the result is a [`Catalogue`] (one
-//! `Vec` per column) that [`routes`], [`render`] and [`sky`] consume.
+//! `Vec` per column) that `routes`, [`render`] and `sky` consume.
 //!
 //! ```
 //! use starloom::physics::{star_profile, Fidelity, KindChoice, StarRequest};

@@ -32,7 +32,7 @@ pub const DEFAULT_DENSITY_PER_LY3: f64 = 0.0025;
 pub const MAX_DENSITY_PER_LY3: f64 = 5.0;
 
 /// Default thick-disk share: thick(R⊙)/thin(R⊙) = 0.12 (Jurić et al. 2008,
-/// ApJ 673, 864, abstract; shared/science light-and-maps.md §5.1 [verified]).
+/// ApJ 673, 864, abstract (verified)).
 pub const DEFAULT_THICK_SHARE: f64 = 0.12;
 
 /// Default age range, gigayears: constant star formation over the age of
