@@ -256,7 +256,11 @@ fn run_real(args: &PopulateArgs, spec: &spec::SectorSpec, side: &Path) -> crate:
     crate::catalogue::write_catalogue(&cat, &args.out, args.force)?;
     let mut real_spec = spec.clone();
     real_spec.home = false;
-    crate::atomic_file::write_bytes(side, args.force, spec::to_toml(&real_spec, None).as_bytes())?;
+    let text = format!(
+        "# written by `starloom populate --real`: add --real to the command below to regenerate the same catalogue.\n{}",
+        spec::to_toml(&real_spec, None)
+    );
+    crate::atomic_file::write_bytes(side, args.force, text.as_bytes())?;
     let real = cat
         .origin
         .iter()

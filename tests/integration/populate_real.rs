@@ -13,6 +13,8 @@ fn real_neighbourhood_file_marks_every_row() {
     );
     assert_eq!(out.status.code(), Some(0), "{}", stderr(&out));
     assert!(stdout(&out).contains("real"), "{}", stdout(&out));
+    let side = std::fs::read_to_string(dir.join("near.csv.toml")).unwrap();
+    assert!(side.contains("--real"), "{side}");
     let cat = starloom::catalogue::read_catalogue(&dir.join("near.csv")).unwrap();
     assert_eq!(cat.name[0], "Sun");
     assert_eq!(cat.position_ly(0), [0.0; 3]);
