@@ -53,6 +53,11 @@ pub struct PopulateArgs {
     /// Put a sun-like home system at the centre.
     #[arg(long)]
     pub home: bool,
+    /// Real stars (Hipparcos, within 100 ly of the Sun) inside the volume,
+    /// the Sun at the origin as home, plus generated stars where the real
+    /// list is incomplete.
+    #[arg(long)]
+    pub real: bool,
     /// Sector title (recorded in the sidecar).
     #[arg(long)]
     pub title: Option<String>,
@@ -233,6 +238,46 @@ pub fn build_spec(args: &PopulateArgs) -> crate::Result<(spec::SectorSpec, Optio
     Ok((spec, shard, drew_seed))
 }
 
+/// Runs `starloom populate --real`: the real neighbourhood in memory, then
+/// written in one go.
+fn run_real(args: &PopulateArgs, spec: &spec::SectorSpec, side: &Path) -> crate::Result<()> {
+    if args.shard.is_some() {
+        return Err(Error::Usage(
+            "--real cannot be combined with --shard: the real neighbourhood is written in one file"
+                .into(),
+        ));
+    }
+    if args.pin.is_some() || !spec.pins.is_empty() {
+        return Err(Error::Usage(
+            "--real cannot be combined with --pin: the real stars take the place of pins".into(),
+        ));
+    }
+    let cat = crate::neighbourhood::real_neighbourhood_sector(spec)?;
+    crate::catalogue::write_catalogue(&cat, &args.out, args.force)?;
+    let mut real_spec = spec.clone();
+    real_spec.home = false;
+    let text = format!(
+        "# written by `starloom populate --real`: add --real to the command below to regenerate the same catalogue.\n{}",
+        spec::to_toml(&real_spec, None)
+    );
+    crate::atomic_file::write_bytes(side, args.force, text.as_bytes())?;
+    let real = cat
+        .origin
+        .iter()
+        .zip(&cat.kind)
+        .filter(|(o, k)| **o == crate::catalogue::Origin::Hipparcos && k.is_star())
+        .count();
+    let stars = cat.kind.iter().filter(|k| k.is_star()).count();
+    println!(
+        "wrote {stars} stars ({real} real, {} generated; {} objects with brown dwarfs, {} systems) to {}",
+        stars - real,
+        cat.len(),
+        cat.system_ranges().len(),
+        args.out.display()
+    );
+    Ok(())
+}
+
 /// Runs `starloom populate`.
 pub fn run(args: PopulateArgs) -> anyhow::Result<ExitCode> {
     let (spec, shard, drew_seed) = build_spec(&args)?;
@@ -242,6 +287,12 @@ pub fn run(args: PopulateArgs) -> anyhow::Result<ExitCode> {
     crate::catalogue::Format::from_path(&args.out, "--out")?;
     crate::atomic_file::check_target(&args.out, args.force)?;
     crate::atomic_file::check_target(&side, args.force)?;
+    if args.real {
+        run_real(&args, &spec, &side)?;
+        println!("spec written to {}", side.display());
+        print_seed(spec.seed, drew_seed);
+        return Ok(ExitCode::SUCCESS);
+    }
     let bar = super::progress::bar(1, "populate");
     let report =
         crate::sampler::write_sector(&spec, &args.out, args.force, shard, &|done, total| {
@@ -263,13 +314,14 @@ pub fn run(args: PopulateArgs) -> anyhow::Result<ExitCode> {
         args.out.display()
     );
     println!("spec written to {}", side.display());
-    if drew_seed {
-        println!(
-            "seed {} (drawn fresh; pass --seed {} to repeat)",
-            spec.seed, spec.seed
-        );
-    } else {
-        println!("seed {}", spec.seed);
-    }
+    print_seed(spec.seed, drew_seed);
     Ok(ExitCode::SUCCESS)
+}
+
+fn print_seed(seed: u64, drew_seed: bool) {
+    if drew_seed {
+        println!("seed {seed} (drawn fresh; pass --seed {seed} to repeat)");
+    } else {
+        println!("seed {seed}");
+    }
 }

@@ -3,6 +3,7 @@
 mod cli_routes;
 mod cli_sky;
 mod cli_star;
+mod populate_real;
 mod render_hr;
 mod render_output;
 mod render_raster;
