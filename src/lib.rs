@@ -33,6 +33,7 @@ pub mod catalogue;
 pub mod cli;
 pub mod coords;
 pub mod error;
+pub mod map;
 pub mod physics;
 pub mod population;
 pub mod render;

@@ -8,3 +8,4 @@ pub mod output;
 pub mod overlay;
 pub mod paper;
 pub mod scene;
+pub mod text;

@@ -1,5 +1,7 @@
 //! Integration tests, compiled as one binary: one module per area.
 
+mod cli_map;
 mod cli_star;
+mod map_sheets;
 mod tidy;
 mod util;
