@@ -1,5 +1,8 @@
 //! The `summary` command: counts, shares and statistics of a catalogue.
 
+use crate::render::hr_diagram::hr_scene;
+use crate::render::output::{Format, check_dpi, write_scenes};
+use crate::render::paper::Theme;
 use std::path::PathBuf;
 use std::process::ExitCode;
 
@@ -11,11 +14,48 @@ pub struct SummaryArgs {
     /// Print JSON instead of text.
     #[arg(long)]
     pub json: bool,
+    /// Also draw a Hertzsprung–Russell diagram into this file (.png, .svg or .pdf).
+    #[arg(long, value_name = "PATH")]
+    pub hr: Option<PathBuf>,
+    /// Resolution of a PNG diagram, dots per inch (10–2400).
+    #[arg(long, default_value = "300", value_name = "N", allow_hyphen_values = true)]
+    pub dpi: String,
+    /// Colours of the diagram: print (light paper) or screen (dark).
+    #[arg(long, default_value = "print", value_name = "THEME")]
+    pub theme: String,
+    /// Replace the diagram file if it exists.
+    #[arg(long)]
+    pub force: bool,
+}
+
+/// Checks the diagram options before any work, so a refusal costs nothing.
+fn diagram_options(args: &SummaryArgs) -> crate::Result<Option<(PathBuf, f32, Theme)>> {
+    let dpi: f32 = args.dpi.trim().parse().map_err(|_| {
+        crate::Error::invalid(
+            "--dpi",
+            &args.dpi,
+            "it must be a resolution from 10 to 2400 dots per inch",
+        )
+    })?;
+    check_dpi("--dpi", dpi)?;
+    let theme = Theme::parse(&args.theme)
+        .ok_or_else(|| crate::Error::invalid("--theme", &args.theme, "it must be print or screen"))?;
+    let Some(path) = &args.hr else {
+        return Ok(None);
+    };
+    Format::from_path(path)?;
+    crate::atomic_file::check_target(path, args.force)?;
+    Ok(Some((path.clone(), dpi, theme)))
 }
 
 /// Runs `starloom summary`.
 pub fn run(args: SummaryArgs) -> anyhow::Result<ExitCode> {
+    let diagram = diagram_options(&args)?;
     let cat = crate::catalogue::read_catalogue(&args.catalogue)?;
+    if let Some((path, dpi, theme)) = &diagram {
+        let scene = hr_scene(&cat, *theme);
+        write_scenes(std::slice::from_ref(&scene), path, *dpi, args.force)?;
+    }
     // The sector's own volume, from the sidecar spec when there is one.
     let mut side = args.catalogue.as_os_str().to_owned();
     side.push(".toml");
@@ -27,6 +67,9 @@ pub fn run(args: SummaryArgs) -> anyhow::Result<ExitCode> {
     if args.json {
         println!("{}", serde_json::to_string_pretty(&s)?);
         return Ok(ExitCode::SUCCESS);
+    }
+    if let Some((path, _, _)) = &diagram {
+        println!("wrote the Hertzsprung–Russell diagram to {}", path.display());
     }
     if let Some(t) = &cat.meta.title {
         println!("{t}");
