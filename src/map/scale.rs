@@ -68,7 +68,7 @@ pub fn parse_scale_mm_per_ly(text: &str) -> Result<f64> {
     if !(ly.is_finite() && mm.is_finite() && ly > 0.0 && mm > 0.0 && mm_per_ly.is_finite()) {
         return Err(bad());
     }
-    if mm_per_ly > 1.0e6 || mm_per_ly < 1.0e-9 {
+    if !(1.0e-9..=1.0e6).contains(&mm_per_ly) {
         return Err(Error::invalid(
             "--scale",
             text,
@@ -164,7 +164,7 @@ mod tests {
         );
         assert_relative_eq!(
             parse_scale_mm_per_ly("1kpc/m").unwrap(),
-            1000.0 / 3261.563_777,
+            1000.0 / 3_261.563_777,
             max_relative = 1e-9
         );
     }
