@@ -18,7 +18,12 @@ pub struct SummaryArgs {
     #[arg(long, value_name = "PATH")]
     pub hr: Option<PathBuf>,
     /// Resolution of a PNG diagram, dots per inch (10–2400).
-    #[arg(long, default_value = "300", value_name = "N", allow_hyphen_values = true)]
+    #[arg(
+        long,
+        default_value = "300",
+        value_name = "N",
+        allow_hyphen_values = true
+    )]
     pub dpi: String,
     /// Colours of the diagram: print (light paper) or screen (dark).
     #[arg(long, default_value = "print", value_name = "THEME")]
@@ -38,8 +43,9 @@ fn diagram_options(args: &SummaryArgs) -> crate::Result<Option<(PathBuf, f32, Th
         )
     })?;
     check_dpi("--dpi", dpi)?;
-    let theme = Theme::parse(&args.theme)
-        .ok_or_else(|| crate::Error::invalid("--theme", &args.theme, "it must be print or screen"))?;
+    let theme = Theme::parse(&args.theme).ok_or_else(|| {
+        crate::Error::invalid("--theme", &args.theme, "it must be print or screen")
+    })?;
     let Some(path) = &args.hr else {
         return Ok(None);
     };
@@ -69,7 +75,10 @@ pub fn run(args: SummaryArgs) -> anyhow::Result<ExitCode> {
         return Ok(ExitCode::SUCCESS);
     }
     if let Some((path, _, _)) = &diagram {
-        println!("wrote the Hertzsprung–Russell diagram to {}", path.display());
+        println!(
+            "wrote the Hertzsprung–Russell diagram to {}",
+            path.display()
+        );
     }
     if let Some(t) = &cat.meta.title {
         println!("{t}");

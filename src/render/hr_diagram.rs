@@ -173,8 +173,8 @@ pub fn hr_scene(cat: &Catalogue, theme: Theme) -> Scene {
         width_mm: wmm,
         dash_mm: None,
     };
-    let text = |pos: [f32; 2], s: String, size: f32, anchor: Anchor, bold: bool, rot: f32| {
-        Item::Text {
+    let text =
+        |pos: [f32; 2], s: String, size: f32, anchor: Anchor, bold: bool, rot: f32| Item::Text {
             position_mm: pos,
             text: s,
             size_pt: size,
@@ -182,8 +182,7 @@ pub fn hr_scene(cat: &Catalogue, theme: Theme) -> Scene {
             anchor,
             bold,
             rotation_deg: rot,
-        }
-    };
+        };
 
     // Grid and ticks.
     let t_ticks = temperature_ticks(axes.log_t_right, axes.log_t_left);

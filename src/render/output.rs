@@ -135,7 +135,9 @@ pub fn encode_png<W: Write>(
     w: W,
 ) -> std::result::Result<(), png::EncodingError> {
     let data = pixmap.data();
-    let opaque = data.par_chunks(4 * 4096).all(|c| c.chunks_exact(4).all(|p| p[3] == 255));
+    let opaque = data
+        .par_chunks(4 * 4096)
+        .all(|c| c.chunks_exact(4).all(|p| p[3] == 255));
     let (color, bytes): (png::ColorType, Vec<u8>) = if opaque {
         let mut rgb = vec![0u8; data.len() / 4 * 3];
         rgb.par_chunks_mut(3 * 4096)

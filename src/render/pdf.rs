@@ -322,7 +322,14 @@ fn glyph_form(bold: bool, gid: u16) -> (Vec<u8>, Rect) {
                 ];
                 nums(
                     &mut out,
-                    &[c1[0] * k, c1[1] * k, c2[0] * k, c2[1] * k, a[0] * k, a[1] * k],
+                    &[
+                        c1[0] * k,
+                        c1[1] * k,
+                        c2[0] * k,
+                        c2[1] * k,
+                        a[0] * k,
+                        a[1] * k,
+                    ],
                 );
                 out.extend_from_slice(b"c\n");
                 cur = a;
@@ -333,7 +340,14 @@ fn glyph_form(bold: bool, gid: u16) -> (Vec<u8>, Rect) {
                 grow(&a);
                 nums(
                     &mut out,
-                    &[c1[0] * k, c1[1] * k, c2[0] * k, c2[1] * k, a[0] * k, a[1] * k],
+                    &[
+                        c1[0] * k,
+                        c1[1] * k,
+                        c2[0] * k,
+                        c2[1] * k,
+                        a[0] * k,
+                        a[1] * k,
+                    ],
                 );
                 out.extend_from_slice(b"c\n");
                 cur = a;

@@ -138,7 +138,13 @@ fn make_sprite(step: usize, px: usize, py: usize, outline_px: f32) -> Sprite {
     paint.set_color_rgba8(255, 255, 255, 255);
     paint.anti_alias = true;
     let mut pm = Pixmap::new(size as u32, size as u32).expect("sprite size");
-    pm.fill_path(&circle, &paint, FillRule::Winding, Transform::identity(), None);
+    pm.fill_path(
+        &circle,
+        &paint,
+        FillRule::Winding,
+        Transform::identity(),
+        None,
+    );
     let fill = pm.pixels().iter().map(|p| p.alpha()).collect();
     let stroke = if outline_px > 0.0 {
         let mut pm = Pixmap::new(size as u32, size as u32).expect("sprite size");
@@ -696,7 +702,10 @@ fn item_extent_mm(item: &Item) -> (f32, f32) {
         } => {
             let size_mm = size_pt * text::MM_PER_PT;
             if rotation_deg.abs() < 1e-3 {
-                (position_mm[1] - 1.3 * size_mm, position_mm[1] + 0.5 * size_mm)
+                (
+                    position_mm[1] - 1.3 * size_mm,
+                    position_mm[1] + 0.5 * size_mm,
+                )
             } else {
                 let reach = text::text_width_mm(text, *size_pt, *bold) + 1.5 * size_mm;
                 (position_mm[1] - reach, position_mm[1] + reach)

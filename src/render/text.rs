@@ -70,7 +70,11 @@ pub fn layout(text: &str, bold: bool) -> (Vec<PlacedGlyph>, f32) {
     for ch in text.chars() {
         let gid = f.face.glyph_index(ch).map_or(0, |g| g.0);
         if let Some(p) = prev {
-            pen += f.raster.horizontal_kern_indexed(p, gid, upem).unwrap_or(0.0) / upem;
+            pen += f
+                .raster
+                .horizontal_kern_indexed(p, gid, upem)
+                .unwrap_or(0.0)
+                / upem;
         }
         out.push(PlacedGlyph {
             glyph_id: gid,

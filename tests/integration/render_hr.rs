@@ -50,8 +50,15 @@ fn hot_left_of_cool_and_bright_above_faint() {
 fn summary_writes_the_diagram() {
     let dir = work_dir("render_hr_cli");
     std::fs::write(dir.join("four.csv"), CSV).unwrap();
-    let out = starloom(&dir, &["summary", "four.csv", "--hr", "hr.png", "--dpi", "40"]);
-    assert!(out.status.success(), "{}", String::from_utf8_lossy(&out.stderr));
+    let out = starloom(
+        &dir,
+        &["summary", "four.csv", "--hr", "hr.png", "--dpi", "40"],
+    );
+    assert!(
+        out.status.success(),
+        "{}",
+        String::from_utf8_lossy(&out.stderr)
+    );
     // A4 landscape at 40 dpi: 297/25.4*40 = 467.7, 210/25.4*40 = 330.7.
     let (w, h, ..) = crate::render_output::decode_png(&dir.join("hr.png"));
     assert_eq!((w, h), (468, 331));
@@ -62,7 +69,10 @@ fn summary_writes_the_diagram() {
     assert_user_error(&again, "--force");
     let svg = starloom(&dir, &["summary", "four.csv", "--hr", "hr.svg"]);
     assert!(svg.status.success());
-    let bad = starloom(&dir, &["summary", "four.csv", "--hr", "x.png", "--dpi", "5000"]);
+    let bad = starloom(
+        &dir,
+        &["summary", "four.csv", "--hr", "x.png", "--dpi", "5000"],
+    );
     assert_user_error(&bad, "--dpi");
     let bad = starloom(&dir, &["summary", "four.csv", "--hr", "x.gif"]);
     assert_user_error(&bad, ".png, .svg or .pdf");

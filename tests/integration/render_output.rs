@@ -243,7 +243,10 @@ fn bad_requests_write_nothing() {
     let bad = dir.join("sheet.jpg");
     let err = write_scenes(std::slice::from_ref(&scene), &bad, 300.0, false).unwrap_err();
     let msg = err.to_string();
-    assert!(msg.contains("sheet.jpg") && msg.contains(".png, .svg or .pdf"), "{msg}");
+    assert!(
+        msg.contains("sheet.jpg") && msg.contains(".png, .svg or .pdf"),
+        "{msg}"
+    );
     let two = dir.join("two.png");
     let err = write_scenes(&[scene.clone(), scene.clone()], &two, 300.0, false).unwrap_err();
     assert!(err.to_string().contains("one page"), "{err}");

@@ -13,7 +13,10 @@ fn busy_scene(stars: usize, w: f32, h: f32) -> Scene {
     let mut radii = Vec::with_capacity(stars);
     let mut fills = Vec::with_capacity(stars);
     for _ in 0..stars {
-        centres.push([rng.random_range(-2.0..w + 2.0), rng.random_range(-2.0..h + 2.0)]);
+        centres.push([
+            rng.random_range(-2.0..w + 2.0),
+            rng.random_range(-2.0..h + 2.0),
+        ]);
         // Mostly sprites, a few above the sprite limit.
         let r: f32 = rng.random_range(0.0f32..1.0);
         radii.push(0.05 + 0.8 * r.powi(6));
