@@ -5,7 +5,7 @@
 //! instead of shrinking the type.
 //!
 //! # Allocations
-//! One hash grid of placed boxes (cells of [`CELL_MM`]) and the output.
+//! One hash grid of placed boxes (8 mm cells) and the output.
 
 use std::collections::HashMap;
 

@@ -26,7 +26,7 @@ pub mod view;
 
 pub use layout::Frame;
 pub use options::{LabelMode, Layers, MapOptions};
-pub use sheet::{MapSheet, MapSheets, SheetRole, build_sheets};
+pub use sheet::{MAX_TILES, MapSheet, MapSheets, SheetRole, build_sheets};
 
 use crate::error::{Error, Result};
 use crate::render::scene::Scene;

@@ -220,7 +220,7 @@ fn class_colours(cat: &Catalogue, systems: &[Sys]) -> Vec<(char, Rgba)> {
 ///
 /// # Errors
 /// [`Error::Usage`] when a perspective eye sits on its look point;
-/// [`Error::TooLarge`] when the scale would need more than [`MAX_TILES`]
+/// [`Error::TooLarge`] when the scale would need more than [`crate::map::MAX_TILES`]
 /// sheets.
 pub fn build_sheets(cat: &Catalogue, opts: &MapOptions, overlay: &Overlay) -> Result<MapSheets> {
     let centre = opts.centre_ly.unwrap_or_else(|| bbox_centre(cat));
