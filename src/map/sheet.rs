@@ -493,8 +493,10 @@ impl Ctx<'_> {
             .min(f64::from(area.height()) / (2.0 * half[1]));
         let mm_per_ly = match self.opts.mm_per_ly {
             Some(s) => s,
-            // A round number of ly per cm that fits.
-            None => 10.0 / nice_ceil(10.0 / fit),
+            // A round number of ly per cm that fits the top view; 3D views
+            // are not measured with a ruler, so they fill the sheet.
+            None if self.proj.is_top() => 10.0 / nice_ceil(10.0 / fit),
+            None => fit,
         };
         let extent = [2.0 * half[0] * mm_per_ly, 2.0 * half[1] * mm_per_ly];
         let fits = extent[0] <= f64::from(area.width()) + 1e-6
@@ -753,7 +755,13 @@ impl Ctx<'_> {
                 centres_mm: centres,
                 radii_mm: radii,
                 fills,
-                outline: self.pal.star_outline,
+                // On a sheet dense enough that discs touch, outlines would
+                // merge into a dark mass; the fills alone read better.
+                outline: if crowd > 0.3 {
+                    self.pal.star_outline
+                } else {
+                    None
+                },
             });
         }
         for (v, symbol, generated) in markers {
