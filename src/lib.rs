@@ -34,6 +34,7 @@ pub mod cli;
 pub mod coords;
 pub mod demo;
 pub mod error;
+pub mod map;
 pub mod neighbourhood;
 pub mod physics;
 pub mod population;

@@ -1,8 +1,10 @@
 //! Integration tests, compiled as one binary: one module per area.
 
+mod cli_map;
 mod cli_routes;
 mod cli_sky;
 mod cli_star;
+mod map_sheets;
 mod populate_real;
 mod render_hr;
 mod render_output;

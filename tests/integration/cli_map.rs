@@ -1,0 +1,228 @@
+//! The `map` command as a user runs it: bad input gives one sentence,
+//! exit code 2 and no file.
+
+use crate::util::{assert_user_error, starloom, work_dir};
+use std::path::Path;
+
+const HAND_MADE: &str = "name,x_ly,y_ly,z_ly\nHome,0,0,0\nEast,10,0,2\nNorth,0,10,-3\n";
+
+fn setup(name: &str) -> std::path::PathBuf {
+    let dir = work_dir(name);
+    std::fs::write(dir.join("stars.csv"), HAND_MADE).unwrap();
+    dir
+}
+
+fn no_output(dir: &Path) {
+    let files: Vec<_> = std::fs::read_dir(dir)
+        .unwrap()
+        .map(|e| e.unwrap().file_name().to_string_lossy().into_owned())
+        .filter(|n| n != "stars.csv" && n != "bad.csv")
+        .collect();
+    assert!(files.is_empty(), "no file may be written: {files:?}");
+}
+
+#[test]
+fn bad_options_are_one_sentence_and_write_nothing() {
+    let dir = setup("map-bad-options");
+    let cases: &[(&[&str], &str)] = &[
+        (&["--paper", "b5"], "--paper"),
+        (&["--view", "side"], "--view"),
+        (&["--theme", "neon"], "--theme"),
+        (&["--dpi", "5"], "--dpi"),
+        (&["--dpi", "2401"], "--dpi"),
+        (&["--scale", "-2ly/cm"], "--scale"),
+        (&["--scale", "0ly/cm"], "--scale"),
+        (&["--scale", "5furlongs/cm"], "--scale"),
+        (&["--label", "some"], "--label"),
+        (&["--hide", "grid,sky"], "--hide"),
+        (&["--only", "dwarf"], "--only"),
+        (&["--z-range", "10,-10"], "--z-range"),
+        (&["--centre", "1,2"], "--centre"),
+        (&["--view", "perspective", "--eye", "-300,-200"], "--eye"),
+        (&["--view", "oblique", "--tilt", "120"], "--tilt"),
+        (&["--tilt", "20"], "--tilt"),
+        (&["--lanes"], "--jump"),
+        (&["--jump", "-5"], "--jump"),
+        (&["--jump", "8", "--route", "Home"], "--route"),
+        (&["--paper", "a0", "--portrait", "--dpi", "2400"], "--dpi"),
+        (
+            &["--view", "perspective", "--eye", "1,1,1", "--look", "1,1,1"],
+            "--eye",
+        ),
+    ];
+    for (extra, needle) in cases {
+        let mut args = vec!["map", "stars.csv", "--out", "map.png"];
+        args.extend_from_slice(extra);
+        let out = starloom(&dir, &args);
+        assert_user_error(&out, needle);
+        no_output(&dir);
+    }
+    let out = starloom(&dir, &["map", "stars.csv", "--out", "map.gif"]);
+    assert_user_error(&out, "--out");
+}
+
+#[test]
+fn bad_catalogues_are_one_sentence_and_write_nothing() {
+    let dir = setup("map-bad-catalogue");
+    let out = starloom(&dir, &["map", "missing.csv", "--out", "map.png"]);
+    assert_user_error(&out, "missing.csv");
+    std::fs::write(
+        dir.join("bad.csv"),
+        "name,x_ly,y_ly,z_ly\nA,1,2,3\nB,4,five,6\n",
+    )
+    .unwrap();
+    let out = starloom(&dir, &["map", "bad.csv", "--out", "map.png"]);
+    assert_user_error(&out, "line 3");
+    assert_user_error(&out, "y_ly");
+    no_output(&dir);
+}
+
+/// Decodes a PNG into (width, height, RGBA bytes) and its pHYs pixels per metre.
+fn decode(path: &Path) -> (u32, u32, Vec<u8>, usize, Option<u32>) {
+    let file = std::io::BufReader::new(std::fs::File::open(path).unwrap());
+    let mut reader = png::Decoder::new(file).read_info().unwrap();
+    let ppm = reader.info().pixel_dims.map(|d| d.xppu);
+    let mut buf = vec![0; reader.output_buffer_size().unwrap()];
+    let info = reader.next_frame(&mut buf).unwrap();
+    buf.truncate(info.buffer_size());
+    (info.width, info.height, buf, info.color_type.samples(), ppm)
+}
+
+/// Centroid of the inked (not white) pixels within `half` px of `around`.
+fn ink_centroid(
+    png: &(u32, u32, Vec<u8>, usize, Option<u32>),
+    around: [f64; 2],
+    half: i64,
+) -> [f64; 2] {
+    let (w, h, buf, ch, _) = png;
+    let (mut sx, mut sy, mut n) = (0.0, 0.0, 0.0);
+    for y in (around[1] as i64 - half).max(0)..(around[1] as i64 + half).min(*h as i64) {
+        for x in (around[0] as i64 - half).max(0)..(around[0] as i64 + half).min(*w as i64) {
+            let i = (y as usize * *w as usize + x as usize) * ch;
+            let ink = 765.0 - (buf[i] as f64 + buf[i + 1] as f64 + buf[i + 2] as f64);
+            sx += ink * (x as f64 + 0.5);
+            sy += ink * (y as f64 + 0.5);
+            n += ink;
+        }
+    }
+    assert!(n > 0.0, "nothing drawn near {around:?}");
+    [sx / n, sy / n]
+}
+
+#[test]
+fn a_star_lands_on_the_pixel_the_scale_says() {
+    let dir = work_dir("map-pixels");
+    std::fs::write(
+        dir.join("probe.csv"),
+        "name,x_ly,y_ly,z_ly,teff_k\nEast,10,0,0,3500\nNorthwest,-10,5,0,3500\n",
+    )
+    .unwrap();
+    let out = starloom(
+        &dir,
+        &[
+            "map",
+            "probe.csv",
+            "--out",
+            "probe.png",
+            "--centre",
+            "0,0,0",
+            "--scale",
+            "5ly/cm",
+            "--dpi",
+            "100",
+            "--hide",
+            "grid,labels,legend,scalebar,title,stalks,frame",
+        ],
+    );
+    assert_eq!(out.status.code(), Some(0), "{}", crate::util::stderr(&out));
+    let png = decode(&dir.join("probe.png"));
+    // A4 landscape at 100 dpi: 297 mm → 1169 px, 210 mm → 827 px.
+    assert_eq!((png.0, png.1), (1169, 827));
+    // pHYs: 100 dpi = round(100 / 0.0254) = 3937 px/m.
+    assert_eq!(png.4, Some(3937));
+    // No panel: the map fills 10–287 × 10–200 mm, centred at (148.5, 105) mm.
+    // 5 ly/cm = 2 mm/ly; +x right, +y up the sheet.
+    let px = |mm: f64| mm / 25.4 * 100.0;
+    for (x_mm, y_mm) in [(148.5 + 20.0, 105.0), (148.5 - 20.0, 105.0 - 10.0)] {
+        let c = ink_centroid(&png, [px(x_mm), px(y_mm)], 14);
+        assert!(
+            (c[0] - px(x_mm)).abs() < 1.0 && (c[1] - px(y_mm)).abs() < 1.0,
+            "star at {c:?}, expected ({}, {})",
+            px(x_mm),
+            px(y_mm)
+        );
+    }
+}
+
+#[test]
+fn maps_are_written_in_every_view_and_tiled_when_large() {
+    let dir = setup("map-views");
+    for args in [
+        &["--view", "top"][..],
+        &["--view", "oblique", "--tilt", "50"],
+        &["--view", "perspective", "--eye", "-300,-200,150"],
+        &[
+            "--view",
+            "perspective",
+            "--look",
+            "-1,-1,0",
+            "--theme",
+            "screen",
+        ],
+    ] {
+        let mut a = vec![
+            "map",
+            "stars.csv",
+            "--out",
+            "v.svg",
+            "--force",
+            "--dpi",
+            "50",
+        ];
+        a.extend_from_slice(args);
+        let out = starloom(&dir, &a);
+        assert_eq!(
+            out.status.code(),
+            Some(0),
+            "{args:?}: {}",
+            crate::util::stderr(&out)
+        );
+    }
+    // 10 ly across (plus 4 %) at 2 cm per ly is 208 mm each way: it fits
+    // the width of a tile (273 mm) but is taller than one A4 map area (190 mm), so 2 rows × 1 column of
+    // tiles (186 mm map height each, 176 mm steps) plus an index.
+    let out = starloom(
+        &dir,
+        &[
+            "map",
+            "stars.csv",
+            "--out",
+            "big.png",
+            "--scale",
+            "1ly/2cm",
+            "--dpi",
+            "30",
+        ],
+    );
+    assert_eq!(out.status.code(), Some(0), "{}", crate::util::stderr(&out));
+    for name in ["big.index.png", "big.r1c1.png", "big.r2c1.png"] {
+        assert!(dir.join(name).exists(), "{name} missing");
+    }
+    assert!(!dir.join("big.r1c2.png").exists());
+    assert!(!dir.join("big.png").exists());
+    // Existing files are kept without --force, and nothing new appears.
+    let out = starloom(
+        &dir,
+        &[
+            "map",
+            "stars.csv",
+            "--out",
+            "big.png",
+            "--scale",
+            "1ly/2cm",
+            "--dpi",
+            "30",
+        ],
+    );
+    assert_user_error(&out, "--force");
+}

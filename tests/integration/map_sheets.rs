@@ -1,0 +1,306 @@
+//! Map sheets built through the library: stars land where the scale says,
+//! views keep their orientation, filters drop what they should, posters
+//! tile with overlaps, and labels never collide.
+
+use starloom::catalogue::Catalogue;
+use starloom::catalogue::table::{Origin, StarRow};
+use starloom::map::labels::Rect;
+use starloom::map::view::ViewSpec;
+use starloom::map::{Layers, MapOptions, SheetRole, build_sheets};
+use starloom::physics::{Fidelity, KindChoice, StarKind, StarRequest, star_profile};
+use starloom::render::overlay::Overlay;
+use starloom::render::scene::{Item, Scene};
+use starloom::units::{Gigayears, SolarMasses};
+
+fn row(id: u64, name: &str, p: [f64; 3], mass: f64, kind: KindChoice) -> StarRow {
+    let profile = star_profile(
+        &StarRequest {
+            mass: SolarMasses::new(mass).unwrap(),
+            age: Gigayears::new(4.0).unwrap(),
+            kind,
+        },
+        Fidelity::Fitted,
+    );
+    StarRow {
+        id,
+        system: id,
+        name: name.to_string(),
+        position_ly: p,
+        profile,
+        separation_au: 0.0,
+        period_days: 0.0,
+        origin: Origin::Imported,
+    }
+}
+
+/// Five main-sequence stars at known places.
+fn known() -> Catalogue {
+    let mut c = Catalogue::default();
+    let ms = KindChoice::Auto;
+    for (i, (name, p)) in [
+        ("Centre", [0.0, 0.0, 0.0]),
+        ("East", [10.0, 0.0, 0.0]),
+        ("North", [0.0, 10.0, 4.0]),
+        ("Low", [-20.0, -5.0, -6.0]),
+        ("Far", [30.0, 25.0, 0.0]),
+    ]
+    .into_iter()
+    .enumerate()
+    {
+        c.push(row(i as u64 + 1, name, p, 1.0, ms));
+    }
+    c
+}
+
+/// Centres of every drawn star (batched discs and single markers), mm.
+fn star_centres(scene: &Scene) -> Vec<[f32; 2]> {
+    let mut out = Vec::new();
+    for item in &scene.items {
+        match item {
+            Item::Stars { centres_mm, .. } => out.extend(centres_mm.iter().copied()),
+            Item::Marker {
+                centre_mm,
+                fill: Some(_),
+                ..
+            } => out.push(*centre_mm),
+            _ => {}
+        }
+    }
+    out
+}
+
+fn has_star_at(scene: &Scene, at: [f32; 2], tol_mm: f32) -> bool {
+    star_centres(scene)
+        .iter()
+        .any(|c| (c[0] - at[0]).abs() <= tol_mm && (c[1] - at[1]).abs() <= tol_mm)
+}
+
+fn bare() -> MapOptions {
+    MapOptions {
+        centre_ly: Some([0.0, 0.0, 0.0]),
+        mm_per_ly: Some(2.0),
+        ..MapOptions::default()
+    }
+}
+
+/// Map-area centre of an A4 landscape sheet with the panel column: the map
+/// spans x 10–225 mm (297 − 10 margin − 58 panel − 4 gap) and y 10–200 mm.
+const A4_MAP_CENTRE: [f32; 2] = [117.5, 105.0];
+
+#[test]
+fn stars_land_where_the_scale_says() {
+    // 5 ly/cm = 2 mm per ly; +x right, +y up the sheet.
+    let s = build_sheets(&known(), &bare(), &Overlay::default()).unwrap();
+    assert_eq!(s.sheets.len(), 1);
+    let scene = &s.sheets[0].scene;
+    assert_eq!((scene.width_mm, scene.height_mm), (297.0, 210.0));
+    let [cx, cy] = A4_MAP_CENTRE;
+    // One pixel at 300 dpi is 25.4/300 = 0.0847 mm.
+    let px = 25.4 / 300.0;
+    for (p, name) in [
+        ([cx, cy], "centre"),
+        ([cx + 20.0, cy], "10 ly east"),
+        ([cx, cy - 20.0], "10 ly north"),
+        ([cx - 40.0, cy + 10.0], "20 ly west, 5 south"),
+        ([cx + 60.0, cy - 50.0], "far"),
+    ] {
+        assert!(
+            has_star_at(scene, p, px),
+            "{name} not at {p:?}: {:?}",
+            star_centres(scene)
+        );
+    }
+}
+
+#[test]
+fn fitted_scale_is_round_and_fits() {
+    let opts = MapOptions {
+        mm_per_ly: None,
+        ..bare()
+    };
+    let s = build_sheets(&known(), &opts, &Overlay::default()).unwrap();
+    let ly_per_cm = 10.0 / s.mm_per_ly;
+    // Half extents 30 × 25 ly (×1.04) must fit 215 × 190 mm: 2.9 ly/cm
+    // would just fit, and the next round scale (1, 2, 2.5, 5 × 10^k) is 5.
+    assert!((ly_per_cm - 5.0).abs() < 1e-9, "{ly_per_cm}");
+    assert_eq!(s.tiles, [1, 1]);
+}
+
+#[test]
+fn oblique_and_perspective_views() {
+    let oblique = MapOptions {
+        view: ViewSpec::Oblique { tilt_deg: 35.0 },
+        ..bare()
+    };
+    let s = build_sheets(&known(), &oblique, &Overlay::default()).unwrap();
+    let [cx, cy] = A4_MAP_CENTRE;
+    // North (0, 10, 4): v = 10 cos 35° + 4 sin 35° ly, 2 mm each, up the sheet.
+    let v = 10.0 * 35f32.to_radians().cos() + 4.0 * 35f32.to_radians().sin();
+    assert!(has_star_at(&s.sheets[0].scene, [cx, cy - 2.0 * v], 0.01));
+    // A camera 100 ly down −y looking at the origin: East (10, 0, 0) sits
+    // at depth 100, so 10 ly right of centre; Low (−20, −5, −6) at depth
+    // 95 is scaled by 100/95.
+    let persp = MapOptions {
+        view: ViewSpec::Perspective {
+            eye_ly: Some([0.0, -100.0, 0.0]),
+            look_ly: Some([0.0, 0.0, 0.0]),
+        },
+        ..bare()
+    };
+    let s = build_sheets(&known(), &persp, &Overlay::default()).unwrap();
+    let scene = &s.sheets[0].scene;
+    assert!(has_star_at(scene, [cx + 20.0, cy], 0.01));
+    let k = 100.0 / 95.0;
+    assert!(has_star_at(scene, [cx - 40.0 * k, cy + 12.0 * k], 0.01));
+}
+
+#[test]
+fn filters_drop_kinds_and_heights() {
+    let mut c = known();
+    c.push(row(
+        10,
+        "Ember",
+        [5.0, 5.0, 0.0],
+        0.6,
+        KindChoice::Explicit(StarKind::WhiteDwarf),
+    ));
+    let only = MapOptions {
+        only: Some(vec![StarKind::WhiteDwarf]),
+        ..bare()
+    };
+    let s = build_sheets(&c, &only, &Overlay::default()).unwrap();
+    assert_eq!(s.systems, 1);
+    let [cx, cy] = A4_MAP_CENTRE;
+    let scene = &s.sheets[0].scene;
+    // The white dwarf is an open ring: no filled marker, but a Ring marker.
+    let ring_at = scene.items.iter().any(|i| {
+        matches!(i, Item::Marker { centre_mm, shape: starloom::render::scene::Shape::Ring, fill: None, .. }
+            if (centre_mm[0] - (cx + 10.0)).abs() < 0.01 && (centre_mm[1] - (cy - 10.0)).abs() < 0.01)
+    });
+    assert!(ring_at);
+    assert!(!has_star_at(scene, [cx, cy], 0.01));
+    let slab = MapOptions {
+        z_range_ly: Some([-1.0, 1.0]),
+        ..bare()
+    };
+    let s = build_sheets(&c, &slab, &Overlay::default()).unwrap();
+    // Centre, East, Far and Ember have z = 0; North (4) and Low (−6) go.
+    assert_eq!(s.systems, 4);
+}
+
+#[test]
+fn posters_tile_with_overlap_and_an_index() {
+    // Stars from −100 to +100 ly in x at 1 mm per ly: 208 mm wide (with the
+    // 4 % margin), on A4 landscape tiles of 273 × 186 mm map area.
+    let mut c = Catalogue::default();
+    for (i, x) in [-100.0, 0.0, 100.0].into_iter().enumerate() {
+        c.push(row(
+            i as u64 + 1,
+            &format!("S{i}"),
+            [x, 0.0, 0.0],
+            1.0,
+            KindChoice::Auto,
+        ));
+    }
+    let opts = MapOptions {
+        mm_per_ly: Some(1.0),
+        ..bare()
+    };
+    let s = build_sheets(&c, &opts, &Overlay::default()).unwrap();
+    assert_eq!(s.tiles, [1, 1], "208 mm fits one A4 map area");
+    // At 2 mm per ly the map is 416 × 4 mm: two columns of 273 mm tiles
+    // stepping 263 mm cover 536 mm.
+    let opts = MapOptions {
+        mm_per_ly: Some(2.0),
+        ..opts
+    };
+    let s = build_sheets(&c, &opts, &Overlay::default()).unwrap();
+    assert_eq!(s.tiles, [1, 2]);
+    let roles: Vec<SheetRole> = s.sheets.iter().map(|x| x.role).collect();
+    assert_eq!(
+        roles,
+        vec![
+            SheetRole::Index,
+            SheetRole::Tile { row: 1, col: 1 },
+            SheetRole::Tile { row: 1, col: 2 }
+        ]
+    );
+    // The centre star (poster x = 268 mm of 536) lies in the 10 mm both
+    // tiles share (263–273 mm), so it is on both sheets.
+    let on = |k: usize| star_centres(&s.sheets[k].scene).len();
+    assert_eq!(on(1), 2);
+    assert_eq!(on(2), 2);
+}
+
+#[test]
+fn labels_never_overlap_on_a_crowded_sheet() {
+    let mut c = Catalogue::default();
+    // A tight cluster of 400 stars with long names.
+    for i in 0..400u64 {
+        let a = i as f64 * 2.399_963; // golden angle, radians
+        let r = (i as f64).sqrt() * 1.5;
+        c.push(row(
+            i + 1,
+            &format!("Long-named system {i}"),
+            [r * a.cos(), r * a.sin(), 0.0],
+            0.5 + (i % 7) as f64 * 0.3,
+            KindChoice::Auto,
+        ));
+    }
+    let opts = MapOptions {
+        labels: starloom::map::LabelMode::All,
+        layers: Layers {
+            stalks: false,
+            ..Layers::default()
+        },
+        ..bare()
+    };
+    let s = build_sheets(&c, &opts, &Overlay::default()).unwrap();
+    let boxes: Vec<Rect> = s.sheets[0]
+        .scene
+        .items
+        .iter()
+        .filter_map(|i| match i {
+            Item::Text {
+                position_mm,
+                text,
+                size_pt,
+                ..
+            } if text.starts_with("Long-named") => {
+                let w = starloom::render::text::text_width_mm(text, *size_pt, false);
+                let h = size_pt * 25.4 / 72.0;
+                Some(Rect::new(position_mm[0], position_mm[1] - 0.8 * h, w, h))
+            }
+            _ => None,
+        })
+        .collect();
+    assert!(boxes.len() > 20, "some labels placed: {}", boxes.len());
+    assert!(boxes.len() < 400, "a crowded sheet drops labels");
+    for (i, a) in boxes.iter().enumerate() {
+        for b in &boxes[i + 1..] {
+            assert!(!a.overlaps(b), "{a:?} overlaps {b:?}");
+        }
+    }
+    // Never below the readable minimum.
+    for item in &s.sheets[0].scene.items {
+        if let Item::Text { size_pt, .. } = item {
+            assert!(*size_pt >= starloom::map::style::MIN_TEXT_PT);
+        }
+    }
+}
+
+#[test]
+fn route_overlay_is_drawn_under_labels() {
+    let overlay = Overlay {
+        links: vec![[0, 1], [1, 4]],
+        route: vec![0, 1, 4],
+    };
+    let s = build_sheets(&known(), &bare(), &overlay).unwrap();
+    let lines = s.sheets[0]
+        .scene
+        .items
+        .iter()
+        .filter(|i| matches!(i, Item::Line { points_mm, .. } if points_mm.len() == 3))
+        .count();
+    assert!(lines >= 1, "the route is one polyline through three stops");
+}
