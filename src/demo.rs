@@ -15,13 +15,15 @@ use std::path::{Path, PathBuf};
 /// Seed of the demo sector (chosen once; any value works).
 pub const DEMO_SEED: u64 = 73_012_026;
 /// Radius of the demo sector, light years.
-pub const DEMO_RADIUS_LY: f64 = 60.0;
+pub const DEMO_RADIUS_LY: f64 = 40.0;
 /// Title of the demo sector.
 pub const DEMO_TITLE: &str = "Amberline Reach";
 /// The scenario's colony world orbits this star (a pinned system).
 pub const COLONY_STAR: &str = "Quillon";
 /// Resolution of the demo's raster sheets, dots per inch.
 pub const DEMO_DPI: f32 = 150.0;
+/// Radius of the demo's real-neighbourhood sheet around the Sun, ly.
+pub const REAL_RADIUS_LY: f64 = 20.0;
 /// Jump range of the demo's travel network, light years.
 pub const DEMO_JUMP_LY: f64 = 7.0;
 /// The demo's sample route: from the colony's star to the giant.
@@ -184,6 +186,61 @@ pub fn write_demo(dir: &Path, progress: &(dyn Fn(u64, u64) + Sync)) -> Result<De
     let hr = crate::render::hr_diagram::hr_scene(&cat, crate::render::paper::Theme::Print);
     crate::render::output::write_scenes(&[hr], &hr_path, DEMO_DPI, true)?;
     report.files.push(hr_path);
+
+    // The map sheet: top view with the jump network and the sample route,
+    // as PNG and as vector PDF.
+    let overlay = crate::routes::map_overlay(
+        &cat,
+        DEMO_JUMP_LY,
+        false,
+        Some((DEMO_ROUTE.0, DEMO_ROUTE.1)),
+    )?;
+    let opts = crate::map::MapOptions {
+        dpi: DEMO_DPI,
+        centre_ly: Some([0.0, 0.0, 0.0]),
+        ..Default::default()
+    };
+    let sheets = crate::map::build_sheets(&cat, &opts, &overlay)?;
+    let scenes: Vec<_> = sheets.sheets.iter().map(|s| s.scene.clone()).collect();
+    for ext in ["png", "pdf"] {
+        let path = dir.join(format!("amberline_map.{ext}"));
+        crate::render::output::write_scenes(&scenes[..1], &path, DEMO_DPI, true)?;
+        report.files.push(path);
+    }
+
+    // The real neighbourhood of the Sun within 20 ly: Hipparcos stars,
+    // completed by a generated fill that the sheet draws faded.
+    let real_spec = SectorSpec::new(
+        DEMO_SEED,
+        Shape::Sphere {
+            radius_ly: REAL_RADIUS_LY,
+        },
+        [0.0, 0.0, 0.0],
+    );
+    let mut real = crate::neighbourhood::real_neighbourhood_sector(&real_spec)?;
+    real.meta.title = Some("Sun: 20 ly, real + fill".to_string());
+    real.meta.seed = Some(DEMO_SEED);
+    let real_csv = dir.join("sun_20ly.csv");
+    crate::catalogue::writer::write_catalogue(&real, &real_csv, true)?;
+    report.files.push(real_csv);
+    let real_opts = crate::map::MapOptions {
+        dpi: DEMO_DPI,
+        mark_generated: true,
+        labels: crate::map::LabelMode::All,
+        centre_ly: Some([0.0, 0.0, 0.0]),
+        // 2.5 ly/cm, so the whole 40 ly wide sphere fits the A4 map panel.
+        mm_per_ly: Some(4.0),
+        ..Default::default()
+    };
+    let real_sheets = crate::map::build_sheets(&real, &real_opts, &Default::default())?;
+    let real_png = dir.join("sun_20ly_map.png");
+    crate::render::output::write_scenes(
+        &[real_sheets.sheets[0].scene.clone()],
+        &real_png,
+        DEMO_DPI,
+        true,
+    )?;
+    report.files.push(real_png);
 
     // The night sky from the colony world's star.
     let observer = crate::sky::find_observer(&cat, COLONY_STAR)?;
