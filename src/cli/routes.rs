@@ -4,8 +4,8 @@
 use crate::error::Error;
 use crate::physics::StarKind;
 use crate::routes::{
-    JumpNetwork, RouteBy, Systems, connecting_jump_ly, parse_kinds, resolve_system,
-    shortest_route, systems_of_kinds, unreachable_sentence, write_links_csv,
+    JumpNetwork, RouteBy, Systems, connecting_jump_ly, parse_kinds, resolve_system, shortest_route,
+    systems_of_kinds, unreachable_sentence, write_links_csv,
 };
 use serde_json::{Map, Value, json};
 use std::path::PathBuf;

@@ -184,8 +184,8 @@ impl JumpNetwork {
             edges[*slot] = (l.a, l.b, l.distance_ly);
             *slot += 1;
         }
-        let mut csr = Adjacency::from_sorted_edges(&edges)
-            .expect("rows built by counting sort are sorted");
+        let mut csr =
+            Adjacency::from_sorted_edges(&edges).expect("rows built by counting sort are sorted");
         while csr.node_count() < n {
             csr.add_node(());
         }

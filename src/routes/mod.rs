@@ -150,7 +150,11 @@ pub fn resolve_system(cat: &Catalogue, text: &str) -> Result<SystemMatch> {
             suggestion: suggestion_clause(&close_names(cat, &lower)),
         }),
         n => {
-            let ids: Vec<String> = found.iter().take(5).map(|m| m.system_id.to_string()).collect();
+            let ids: Vec<String> = found
+                .iter()
+                .take(5)
+                .map(|m| m.system_id.to_string())
+                .collect();
             let more = if n > 5 { ", ..." } else { "" };
             Err(Error::Usage(format!(
                 "the name '{t}' belongs to {n} systems (ids {}{more}); give a system id instead",
@@ -255,10 +259,13 @@ pub fn systems_of_kinds(cat: &Catalogue, systems: &Systems, kinds: &[StarKind]) 
         .collect()
 }
 
-/// The sentence for a route that does not exist.
+/// The sentence for a route that does not exist. The range is rounded
+/// up to a thousandth of a light year, so that the printed value itself
+/// connects the two systems.
 pub fn unreachable_sentence(from: &str, to: &str, jump_ly: f64, needed_ly: f64) -> String {
+    let shown = (needed_ly * 1000.0 - 1e-6).ceil() / 1000.0;
     format!(
-        "{to} cannot be reached from {from} with a jump range of {jump_ly} ly; the smallest jump range that connects them is {needed_ly:.3} ly"
+        "{to} cannot be reached from {from} with a jump range of {jump_ly} ly; the smallest jump range that connects them is {shown:.3} ly"
     )
 }
 

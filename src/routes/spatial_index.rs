@@ -96,7 +96,12 @@ impl<'a> SpatialIndex<'a> {
     }
 
     /// The neighbours of one point, as in [`SpatialIndex::nearest`].
-    pub fn nearest_of(&self, i: usize, k: Option<usize>, within_ly: Option<f64>) -> Vec<(u32, f64)> {
+    pub fn nearest_of(
+        &self,
+        i: usize,
+        k: Option<usize>,
+        within_ly: Option<f64>,
+    ) -> Vec<(u32, f64)> {
         let Some(tree) = &self.tree else {
             return Vec::new();
         };
@@ -131,8 +136,8 @@ impl<'a> SpatialIndex<'a> {
                     sort_neighbours(&mut v);
                     // Done when every point is in, or the last one kept is
                     // strictly closer than the farthest one returned.
-                    let complete = want >= self.points.len()
-                        || (v.len() > k && v[v.len() - 1].1 > v[k - 1].1);
+                    let complete =
+                        want >= self.points.len() || (v.len() > k && v[v.len() - 1].1 > v[k - 1].1);
                     if complete {
                         break v;
                     }

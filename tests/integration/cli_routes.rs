@@ -79,7 +79,10 @@ fn links_and_lanes_files() {
     let lanes = std::fs::read_to_string(dir.join("lanes.csv")).unwrap();
     assert_eq!(lanes.lines().count(), 6);
     // Without --force an existing file is kept and the run refused.
-    let again = starloom(&dir, &["routes", "hand.csv", "--jump", "2.4", "--out", "links.csv"]);
+    let again = starloom(
+        &dir,
+        &["routes", "hand.csv", "--jump", "2.4", "--out", "links.csv"],
+    );
     assert_user_error(&again, "already exists");
 }
 
@@ -88,7 +91,9 @@ fn route_json_by_distance_and_jumps() {
     let dir = setup("routes-route");
     let v = json_of(
         &dir,
-        &["routes", "hand.csv", "--jump", "2.4", "--from", "ash", "--to", "Cedar", "--json"],
+        &[
+            "routes", "hand.csv", "--jump", "2.4", "--from", "ash", "--to", "Cedar", "--json",
+        ],
     );
     assert_eq!(v["path"], serde_json::json!([1, 2, 3, 4]));
     assert_eq!(v["jumps"], 3);
@@ -110,8 +115,21 @@ fn route_json_by_distance_and_jumps() {
     let v = json_of(
         &dir,
         &[
-            "routes", "hand.csv", "--jump", "2.4", "--from", "Ash", "--to", "Cedar", "--by",
-            "jumps", "--avoid", "white-dwarf", "--jump-time", "3", "--json",
+            "routes",
+            "hand.csv",
+            "--jump",
+            "2.4",
+            "--from",
+            "Ash",
+            "--to",
+            "Cedar",
+            "--by",
+            "jumps",
+            "--avoid",
+            "white-dwarf",
+            "--jump-time",
+            "3",
+            "--json",
         ],
     );
     assert_eq!(v["path"], serde_json::json!([1, 5, 4]));
@@ -123,7 +141,9 @@ fn plain_itinerary_names_every_stop() {
     let dir = setup("routes-plain");
     let out = starloom(
         &dir,
-        &["routes", "hand.csv", "--jump", "2.4", "--from", "Ash", "--to", "Cedar"],
+        &[
+            "routes", "hand.csv", "--jump", "2.4", "--from", "Ash", "--to", "Cedar",
+        ],
     );
     assert_eq!(out.status.code(), Some(0), "{}", stderr(&out));
     let text = stdout(&out);
@@ -138,7 +158,9 @@ fn unreachable_exits_1_and_names_the_range() {
     let dir = setup("routes-unreachable");
     let out = starloom(
         &dir,
-        &["routes", "hand.csv", "--jump", "2.4", "--from", "Ash", "--to", "Zelkova"],
+        &[
+            "routes", "hand.csv", "--jump", "2.4", "--from", "Ash", "--to", "Zelkova",
+        ],
     );
     assert_eq!(out.status.code(), Some(1), "{}", stderr(&out));
     let err = stderr(&out);
@@ -152,7 +174,10 @@ fn unreachable_exits_1_and_names_the_range() {
 fn bad_input_exits_2_with_one_sentence() {
     let dir = setup("routes-bad");
     for jump in ["-1", "0", "nan", "inf", "abc"] {
-        assert_user_error(&starloom(&dir, &["routes", "hand.csv", "--jump", jump]), "--jump");
+        assert_user_error(
+            &starloom(&dir, &["routes", "hand.csv", "--jump", jump]),
+            "--jump",
+        );
     }
     assert_user_error(
         &starloom(&dir, &["routes", "missing.csv", "--jump", "5"]),
@@ -161,36 +186,62 @@ fn bad_input_exits_2_with_one_sentence() {
     assert_user_error(
         &starloom(
             &dir,
-            &["routes", "hand.csv", "--jump", "5", "--from", "Ahs", "--to", "Cedar"],
+            &[
+                "routes", "hand.csv", "--jump", "5", "--from", "Ahs", "--to", "Cedar",
+            ],
         ),
         "did you mean Ash",
     );
     assert_user_error(
         &starloom(
             &dir,
-            &["routes", "hand.csv", "--jump", "5", "--from", "Ash", "--to", "Cedar", "--avoid", "pulsar"],
+            &[
+                "routes", "hand.csv", "--jump", "5", "--from", "Ash", "--to", "Cedar", "--avoid",
+                "pulsar",
+            ],
         ),
         "--avoid",
     );
     assert_user_error(
         &starloom(
             &dir,
-            &["routes", "hand.csv", "--jump", "5", "--from", "Ash", "--to", "Cedar", "--by", "time"],
+            &[
+                "routes", "hand.csv", "--jump", "5", "--from", "Ash", "--to", "Cedar", "--by",
+                "time",
+            ],
         ),
         "--by",
     );
-    assert_user_error(&starloom(&dir, &["routes", "hand.csv", "--jump", "5", "--from", "Ash"]), "--to");
+    assert_user_error(
+        &starloom(
+            &dir,
+            &["routes", "hand.csv", "--jump", "5", "--from", "Ash"],
+        ),
+        "--to",
+    );
     for k in ["0", "-3", "2.5"] {
-        assert_user_error(&starloom(&dir, &["neighbours", "hand.csv", "--k", k]), "--k");
+        assert_user_error(
+            &starloom(&dir, &["neighbours", "hand.csv", "--k", k]),
+            "--k",
+        );
     }
-    assert_user_error(&starloom(&dir, &["neighbours", "hand.csv", "--within", "-2"]), "--within");
-    assert_user_error(&starloom(&dir, &["neighbors", "nowhere.csv"]), "nowhere.csv");
+    assert_user_error(
+        &starloom(&dir, &["neighbours", "hand.csv", "--within", "-2"]),
+        "--within",
+    );
+    assert_user_error(
+        &starloom(&dir, &["neighbors", "nowhere.csv"]),
+        "nowhere.csv",
+    );
 }
 
 #[test]
 fn neighbours_csv() {
     let dir = setup("neighbours-csv");
-    let out = starloom(&dir, &["neighbors", "hand.csv", "--k", "2", "--out", "n.csv"]);
+    let out = starloom(
+        &dir,
+        &["neighbors", "hand.csv", "--k", "2", "--out", "n.csv"],
+    );
     assert_eq!(out.status.code(), Some(0), "{}", stderr(&out));
     let text = std::fs::read_to_string(dir.join("n.csv")).unwrap();
     let lines: Vec<&str> = text.lines().collect();

@@ -100,7 +100,7 @@ fn reference_dijkstra(
                 u = Some(v);
             }
         }
-        let Some(u) = u else { return None };
+        let u = u?;
         if u == to {
             return best[u];
         }
@@ -296,14 +296,26 @@ fn connecting_range_matches_a_complete_graph_kruskal() {
         // With exactly that range a route exists; a hair less, none.
         let at = JumpNetwork::build(p, got);
         assert!(
-            shortest_route(&at.adjacency(), p, from as u32, to as u32, RouteBy::Jumps, &|_| true)
-                .is_some()
+            shortest_route(
+                &at.adjacency(),
+                p,
+                from as u32,
+                to as u32,
+                RouteBy::Jumps,
+                &|_| true
+            )
+            .is_some()
         );
         let below = JumpNetwork::build(p, got * (1.0 - 1e-9));
         assert!(
-            shortest_route(&below.adjacency(), p, from as u32, to as u32, RouteBy::Jumps, &|_| {
-                true
-            })
+            shortest_route(
+                &below.adjacency(),
+                p,
+                from as u32,
+                to as u32,
+                RouteBy::Jumps,
+                &|_| { true }
+            )
             .is_none()
         );
     }
@@ -412,7 +424,11 @@ fn hand_graph_network() {
     // Lanes: F–B1, F–B2 (1.2019 each) join B1, B2, F; then A–B1 and
     // B2–C (4/3 each) bring in A and C; E–B1 (1.3727) brings in E.
     let lanes = 2.0 * (4.0f64 / 9.0 + 1.0).sqrt() + 2.0 * 4.0 / 3.0 + (4.0f64 / 9.0 + 1.44).sqrt();
-    assert!((s.lanes_ly - lanes).abs() < 1e-12, "{} vs {lanes}", s.lanes_ly);
+    assert!(
+        (s.lanes_ly - lanes).abs() < 1e-12,
+        "{} vs {lanes}",
+        s.lanes_ly
+    );
 }
 
 #[test]
