@@ -4,7 +4,7 @@
 //!
 //! Run with `cargo bench --bench routes_network_1m`. The first run writes
 //! the catalogue (a sphere of 457 ly radius at the default density, seed
-//! 1) under the target directory and reuses it afterwards. Set
+//! one) under the target directory and reuses it afterwards. Set
 //! `STARLOOM_BENCH_RUNS` to change the number of timed runs (default 3).
 
 use starloom::routes::{JumpNetwork, Systems};
