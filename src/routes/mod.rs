@@ -259,10 +259,13 @@ pub fn systems_of_kinds(cat: &Catalogue, systems: &Systems, kinds: &[StarKind]) 
         .collect()
 }
 
-/// The sentence for a route that does not exist.
+/// The sentence for a route that does not exist. The range is rounded
+/// up to a thousandth of a light year, so that the printed value itself
+/// connects the two systems.
 pub fn unreachable_sentence(from: &str, to: &str, jump_ly: f64, needed_ly: f64) -> String {
+    let shown = (needed_ly * 1000.0 - 1e-6).ceil() / 1000.0;
     format!(
-        "{to} cannot be reached from {from} with a jump range of {jump_ly} ly; the smallest jump range that connects them is {needed_ly:.3} ly"
+        "{to} cannot be reached from {from} with a jump range of {jump_ly} ly; the smallest jump range that connects them is {shown:.3} ly"
     )
 }
 

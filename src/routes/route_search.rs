@@ -7,6 +7,7 @@ use super::spatial_index::{SpatialIndex, distance_ly};
 use petgraph::algo::astar;
 use petgraph::unionfind::UnionFind;
 use petgraph::visit::NodeFiltered;
+use rayon::prelude::*;
 use std::ops::Add;
 
 /// What a route minimises.
@@ -141,7 +142,8 @@ pub fn shortest_route(
 /// different components and run Kruskal's method over them in order of
 /// distance until the two ends join; the link that joins them is the
 /// answer. Pairs inside one component never matter, so only pairs between
-/// components are kept.
+/// components are kept, and only systems outside the largest component
+/// are queried.
 pub fn connecting_jump_ly(
     network: &JumpNetwork,
     points: &[[f64; 3]],
@@ -184,7 +186,28 @@ pub fn connecting_jump_ly(
             range_ly * 1.5
         };
         let labels = uf.clone().into_labeling();
-        let mut pairs = index.pairs_within(next_ly, &|i, j| labels[i] != labels[j]);
+        // A pair between two components has at least one end outside the
+        // largest one, so only systems outside it are queried.
+        let mut sizes = vec![0u32; labels.len()];
+        for &l in &labels {
+            sizes[l as usize] += 1;
+        }
+        let giant = (0..sizes.len())
+            .max_by_key(|&c| (sizes[c], std::cmp::Reverse(c)))
+            .unwrap_or(0) as u32;
+        let sources: Vec<usize> = (0..labels.len()).filter(|&i| labels[i] != giant).collect();
+        let mut pairs: Vec<(u32, u32, f64)> = sources
+            .par_iter()
+            .flat_map_iter(|&i| {
+                let mut v = Vec::new();
+                index.visit_within(i, next_ly, |j, d| {
+                    if labels[j] != labels[i] && (labels[j] == giant || j > i) {
+                        v.push((i.min(j) as u32, i.max(j) as u32, d));
+                    }
+                });
+                v
+            })
+            .collect();
         pairs.sort_unstable_by(|x, y| x.2.total_cmp(&y.2).then(x.0.cmp(&y.0)).then(x.1.cmp(&y.1)));
         for (i, j, d) in pairs {
             if uf.union(i, j) && uf.equiv(a, b) {
