@@ -100,7 +100,7 @@ fn reference_dijkstra(
                 u = Some(v);
             }
         }
-        let Some(u) = u else { return None };
+        let u = u?;
         if u == to {
             return best[u];
         }
