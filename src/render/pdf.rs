@@ -167,7 +167,7 @@ impl Writer {
                 fill,
                 stroke,
             } => {
-                if !(*radius_mm > 0.0) {
+                if (*radius_mm).is_nan() || *radius_mm <= 0.0 {
                     return;
                 }
                 match shape {
@@ -196,7 +196,7 @@ impl Writer {
                 }
                 let form: &[u8] = if outline.is_some() { b"/Ds" } else { b"/Df" };
                 for (i, (c, r)) in centres_mm.iter().zip(radii_mm).enumerate() {
-                    if !(*r > 0.0) {
+                    if (*r).is_nan() || *r <= 0.0 {
                         continue;
                     }
                     self.set_fill(fills.get(i).copied().unwrap_or(Rgba::rgb(255, 255, 255)));
@@ -243,7 +243,7 @@ impl Writer {
                 bold,
                 rotation_deg,
             } => {
-                if t.is_empty() || !(*size_pt > 0.0) {
+                if t.is_empty() || (*size_pt).is_nan() || *size_pt <= 0.0 {
                     return;
                 }
                 let (glyphs, width_em) = text::layout(t, *bold);

@@ -550,7 +550,7 @@ fn draw_marker(
     fill: Option<Rgba>,
     stroke: Option<&Stroke>,
 ) {
-    if !(r > 0.0) {
+    if r.is_nan() || r <= 0.0 {
         return;
     }
     let [cx, cy] = centre;
@@ -595,7 +595,7 @@ pub(crate) fn anchor_shift_em(anchor: Anchor, width_em: f32) -> f32 {
 }
 
 fn draw_text(pm: &mut PixmapMut<'_>, y0: u32, px_per_mm: f32, t: TextSpec<'_>) {
-    if t.text.is_empty() || !(t.size_pt > 0.0) || t.color.a == 0 {
+    if t.text.is_empty() || t.size_pt.is_nan() || t.size_pt <= 0.0 || t.color.a == 0 {
         return;
     }
     let (glyphs, width_em) = text::layout(t.text, t.bold);
