@@ -221,7 +221,9 @@ fn lb_deg(v: [f64; 3]) -> (f64, f64) {
     if r == 0.0 || !r.is_finite() {
         return (0.0, 0.0);
     }
-    crate::coords::direction_to_lb(v)
+    let (l, b) = crate::coords::direction_to_lb(v);
+    // rem_euclid of a tiny negative angle gives 360 − ε; keep l in [0, 360).
+    (if l >= 360.0 - 1e-9 { 0.0 } else { l }, b)
 }
 
 /// Apparent magnitude with a uniform extinction; objects with no light stay

@@ -26,7 +26,7 @@ fn write_small(dir: &Path) -> std::path::PathBuf {
         (1, 1, "Home", [0.0, 0.0, 0.0], 1.0, 0.0),
         (2, 1, "Home B", [0.0, 0.0, 0.0], 0.5, 20.0),
         (3, 3, "Tenpc", [10.0 * LY_PER_PC, 0.0, 0.0], 1.0, 0.0),
-        (4, 4, "Brightside", [0.0, 12.0, 0.0], 2.0, 0.0),
+        (4, 4, "Brightside", [0.0, 12.0, 0.0], 1.0, 0.0),
         (5, 5, "Faintling", [0.0, 0.0, -300.0], 0.2, 0.0),
     ];
     for (id, system, name, pos, mass, sep) in rows {
@@ -165,4 +165,31 @@ fn bad_input_is_one_sentence_and_exit_code_two() {
         ],
     );
     assert_eq!(out.status.code(), Some(0), "{}", stderr(&out));
+}
+
+#[test]
+fn charts_are_written_in_each_format() {
+    let dir = work_dir("sky-chart");
+    write_small(&dir);
+    let out = starloom(
+        &dir,
+        &[
+            "sky",
+            "small.csv",
+            "--from",
+            "Home",
+            "--out",
+            "sky.svg",
+            "--out",
+            "sky.png",
+            "--dpi",
+            "40",
+        ],
+    );
+    assert_eq!(out.status.code(), Some(0), "{}", stderr(&out));
+    let svg = std::fs::read_to_string(dir.join("sky.svg")).unwrap();
+    assert!(svg.contains("<svg") && svg.contains("The sky from Home"));
+    // PNG signature (PNG spec, ISO/IEC 15948 §5.2).
+    let png = std::fs::read(dir.join("sky.png")).unwrap();
+    assert_eq!(&png[..8], b"\x89PNG\r\n\x1a\n");
 }
