@@ -20,29 +20,6 @@ const POW10: [f64; 19] = [
     1e17, 1e18,
 ];
 
-const POW10_U64: [u64; 20] = [
-    1,
-    10,
-    100,
-    1_000,
-    10_000,
-    100_000,
-    1_000_000,
-    10_000_000,
-    100_000_000,
-    1_000_000_000,
-    10_000_000_000,
-    100_000_000_000,
-    1_000_000_000_000,
-    10_000_000_000_000,
-    100_000_000_000_000,
-    1_000_000_000_000_000,
-    10_000_000_000_000_000,
-    100_000_000_000_000_000,
-    1_000_000_000_000_000_000,
-    10_000_000_000_000_000_000,
-];
-
 /// 10^k for k = -6 ..= 16, indexed by k + 6.
 const POW10_WIDE: [f64; 23] = [
     1e-6, 1e-5, 1e-4, 1e-3, 1e-2, 1e-1, 1e0, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10,
@@ -57,9 +34,8 @@ const DIGIT_PAIRS: &[u8; 200] = b"\
 6061626364656667686970717273747576777879\
 8081828384858687888990919293949596979899";
 
-/// Length of a field scratch array: sign, 19 integer digits, point and 15
-/// decimals fit.
-const FIELD: usize = 40;
+/// Length of a field scratch array: a sign, 20 digits and a point fit.
+const FIELD: usize = 32;
 
 /// Number of decimal digits of `v` (1 for 0).
 #[inline]
@@ -127,6 +103,11 @@ fn round_half_away(y: f64) -> u64 {
 /// Formats `x` (finite) with `d` decimals (at most 15) into `field`;
 /// returns the length, or `None` when |x|·10^d is too large for the
 /// integer path.
+///
+/// All digits of the scaled integer are written at once and the integer
+/// digits then moved one place left to make room for the point, which
+/// avoids a division by a run-time power of ten (a third of this
+/// function's time before).
 #[inline]
 fn format_fixed(field: &mut [u8; FIELD], x: f64, d: usize) -> Option<usize> {
     let y = x.abs() * POW10[d];
@@ -136,17 +117,19 @@ fn format_fixed(field: &mut [u8; FIELD], x: f64, d: usize) -> Option<usize> {
     let scaled = round_half_away(y);
     let neg = (x < 0.0 && scaled != 0) as usize;
     field[0] = b'-';
-    let unit = POW10_U64[d];
-    let (int, frac) = (scaled / unit, scaled % unit);
-    let n = digit_count(int);
-    write_digits(field, neg, n, int);
-    let mut len = neg + n;
-    if d > 0 {
-        field[len] = b'.';
-        write_digits(field, len + 1, d, frac);
-        len += 1 + d;
+    let n_digits = digit_count(scaled);
+    let n_int = if n_digits > d { n_digits - d } else { 1 };
+    let total = n_int + d;
+    if d == 0 {
+        write_digits(field, neg, total, scaled);
+        return Some(neg + total);
     }
-    Some(len)
+    write_digits(field, neg + 1, total, scaled);
+    for k in 0..n_int {
+        field[neg + k] = field[neg + 1 + k];
+    }
+    field[neg + n_int] = b'.';
+    Some(neg + total + 1)
 }
 
 /// Appends `x` with exactly `decimals` digits after the point (at most 15).
