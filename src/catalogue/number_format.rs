@@ -345,8 +345,8 @@ mod tests {
             }
             xs.extend([p, -p, p * (1.0 + 2e-12), p * (1.0 - 2e-12)]);
             // Exact halves at several scales.
-            for d in 0..6 {
-                xs.push((p.round() + 0.5) / POW10[d]);
+            for scale in &POW10[..6] {
+                xs.push((p.round() + 0.5) / scale);
             }
         }
         xs
