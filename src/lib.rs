@@ -4,7 +4,7 @@
 //! [`sampler`] decides where systems are, cell by cell, from the seed
 //! alone; [`population`] draws each system's members, masses and ages and
 //! evolves them through [`physics`]; the result is a [`Catalogue`] (one
-//! `Vec` per column) that [`routes`], [`render`] and [`sky`] consume.
+//! `Vec` per column) that `routes`, [`render`] and `sky` consume.
 //!
 //! ```
 //! use starloom::physics::{star_profile, Fidelity, KindChoice, StarRequest};
@@ -32,13 +32,16 @@ pub mod atomic_file;
 pub mod catalogue;
 pub mod cli;
 pub mod coords;
+pub mod demo;
 pub mod error;
 pub mod physics;
 pub mod population;
 pub mod render;
 pub mod report;
+pub mod routes;
 pub mod sampler;
 pub mod seed;
+pub mod sky;
 pub mod spec;
 pub mod units;
 

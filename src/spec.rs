@@ -22,8 +22,9 @@ use std::path::{Path, PathBuf};
 ///
 /// # Source
 /// E. Mamajek's local density table with the RECONS 10 pc M-dwarf density
-/// gives n_* = 0.083–0.091 pc⁻³ = 0.0024–0.0026 ly⁻³ (shared/science
-/// stars.md §5 [derived from verified table values]); we take the middle.
+/// ("memo_star_dens" web table; figshare 3206527) gives
+/// n_* = 0.083–0.091 pc⁻³ = 0.0024–0.0026 ly⁻³ (derived from those table
+/// values); we take the middle.
 pub const DEFAULT_DENSITY_PER_LY3: f64 = 0.0025;
 
 /// Largest density accepted, stars per cubic light year (about 170 pc⁻³,
@@ -32,12 +33,12 @@ pub const DEFAULT_DENSITY_PER_LY3: f64 = 0.0025;
 pub const MAX_DENSITY_PER_LY3: f64 = 5.0;
 
 /// Default thick-disk share: thick(R⊙)/thin(R⊙) = 0.12 (Jurić et al. 2008,
-/// ApJ 673, 864, abstract; shared/science light-and-maps.md §5.1 [verified]).
+/// ApJ 673, 864, abstract (verified)).
 pub const DEFAULT_THICK_SHARE: f64 = 0.12;
 
 /// Default age range, gigayears: constant star formation over the age of
 /// the local disk, 11.2 Gyr (Binney, Dehnen & Bertelli 2000, MNRAS 318,
-/// 658; shared/science stars.md §9 [verified: abstract]).
+/// 658, abstract (verified)).
 pub const DEFAULT_AGES_GYR: [f64; 2] = [0.0, 11.2];
 
 /// Default radius cleared around each pinned system, light years.
@@ -291,6 +292,25 @@ impl SectorSpec {
         }
         let limit = crate::sampler::cells::MAX_ABS_COORD_LY;
         let h = self.shape.half_extent_ly();
+        if h.iter().any(|&h_i| h_i > limit) {
+            // The shape alone is too large: name the shape's option, not the centre.
+            let (option, value) = match self.shape {
+                Shape::Box { size_ly } => (
+                    "--box",
+                    format!("{},{},{}", size_ly[0], size_ly[1], size_ly[2]),
+                ),
+                Shape::Sphere { radius_ly } => ("--sphere", format!("{radius_ly}")),
+                Shape::Cylinder {
+                    radius_ly,
+                    height_ly,
+                } => ("--cylinder", format!("{radius_ly},{height_ly}")),
+            };
+            return Err(Error::invalid(
+                option,
+                value,
+                format!("the volume must lie within {limit} ly of the origin on every axis"),
+            ));
+        }
         for (&c, &h_i) in self.centre_ly.iter().zip(h.iter()) {
             if !c.is_finite() || c.abs() + h_i > limit {
                 return Err(Error::invalid(
@@ -772,7 +792,7 @@ mod tests {
     fn lengths_with_units() {
         assert_eq!(parse_length_ly("--sphere", "200").unwrap(), 200.0);
         assert_eq!(parse_length_ly("--sphere", "200ly").unwrap(), 200.0);
-        // 1 pc = 3.261 563 777 ly (IAU 2015 B2; shared/science stars.md §1 [derived]).
+        // 1 pc = 3.261 563 777 ly (derived from IAU 2015 B2 and the Julian-year light year).
         assert!((parse_length_ly("--sphere", "60pc").unwrap() - 195.693_826_6).abs() < 1e-5);
         assert!(parse_length_ly("--sphere", "-5").is_err());
         assert!(parse_length_ly("--sphere", "5 furlongs").is_err());

@@ -109,8 +109,8 @@ mod tests {
 
     #[test]
     fn parsec_in_light_years() {
-        // 1 pc = 3.261 563 777 ly (shared/science stars.md §1, derived from
-        // IAU 2015 B2 and the Julian-year light year).
+        // 1 pc = 3.261 563 777 ly (derived from the IAU 2015 Resolution B2 parsec,
+        // the IAU 2012 B2 au and the Julian-year light year).
         assert!((LY_PER_PC - 3.261_563_777).abs() < 1e-9);
         // 1 pc = 206 264.806 247 au (IAU 2015 B2: 648000/π au).
         assert!((METRES_PER_PC / METRES_PER_AU - 206_264.806_247).abs() < 1e-6);

@@ -1,5 +1,5 @@
 //! The `populate` command: turn flags (and an optional spec file) into a
-//! [`SectorSpec`], stream the catalogue to `--out` and write the sidecar
+//! [`SectorSpec`](crate::spec::SectorSpec), stream the catalogue to `--out` and write the sidecar
 //! `OUT.toml` holding the resolved spec.
 
 use crate::error::Error;

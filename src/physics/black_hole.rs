@@ -3,7 +3,7 @@
 //!
 //! # Source
 //! - r_s = 2GM/c² from the IAU 2015 B3 nominal (GM)☉: 2953.250 m per Msun
-//!   (shared/science stars.md §8f, derived). Photon sphere 1.5 r_s;
+//!   (derived: computed from 2GM/c²). Photon sphere 1.5 r_s;
 //!   innermost stable circular orbit 3 r_s = 6GM/c². These hold for a
 //!   non-rotating hole; the ISCO, not the photon sphere, bounds stable orbits.
 //! - Mass from the initial mass: an illustrative mapping of our own,
@@ -62,7 +62,7 @@ mod tests {
 
     #[test]
     fn length_scales() {
-        // stars.md §8f [derived] from IAU 2015 B3 (GM)☉, tol 1e-6: r_s 2953.250 m/Msun,
+        // Derived (computed by hand) from the IAU 2015 B3 (GM)☉, tol 1e-6: r_s 2953.250 m/Msun,
         // photon sphere 4429.88 m, ISCO 8859.75 m per Msun; M = 10 → 29.5325 km;
         // M = 4.3e6 → 1.2699e10 m = 0.0849 au. (Table values rounded to 6 digits: 2e-6.)
         assert!(rel(schwarzschild_km(1.0), 2.953_250) < 1e-6);

@@ -1,7 +1,7 @@
 //! The true colour of a photosphere: a blackbody of temperature Teff seen by
 //! the CIE 1931 2° standard observer and shown on an sRGB display.
 //!
-//! Pipeline (shared/science light-and-maps.md §1–§2):
+//! Pipeline:
 //! 1. Planck's law `S(λ) = λ⁻⁵ / (exp(c2/(λT)) − 1)`, c2 = 1.4388e-2 m K, the
 //!    value used in CIE colorimetry (Planck 1901; CIE 15).
 //! 2. Summed against the CIE 1931 2° colour-matching functions at 1 nm,
@@ -24,11 +24,11 @@
 use std::sync::LazyLock;
 
 /// Second radiation constant used in CIE colorimetry, metre kelvin
-/// (CIE 15; shared/science light-and-maps.md §0).
+/// (CIE 15).
 pub const C2_CIE_M_K: f64 = 1.4388e-2;
 
 /// IEC 61966-2-1:1999 XYZ → linear sRGB matrix (the standard's rounded
-/// form; shared/science light-and-maps.md §2.1).
+/// form).
 pub const XYZ_TO_LINEAR_SRGB: [[f64; 3]; 3] = [
     [3.2406, -1.5372, -0.4986],
     [-0.9689, 1.8758, 0.0415],
@@ -220,14 +220,15 @@ mod tests {
 
     #[test]
     fn cie_table_integrity() {
-        // Sample rows and column sums: shared/science light-and-maps.md §1.2
-        // [verified: colour-science's copy of the CIE 1 nm table].
+        // Sample rows and column sums of the CIE 2019 data set (DOI
+        // 10.25039/CIE.DS.xvudnb9b), verified against colour-science's copy of the
+        // CIE 1 nm table.
         let t = &*CIE_1931_2DEG;
         let row = |nm: usize| t[nm - CIE_FIRST_NM];
         assert_eq!(row(360), [0.0001299, 0.000003917, 0.0006061]);
         assert_eq!(row(450), [0.3362, 0.038, 1.77211]);
         assert_eq!(row(500), [0.0049, 0.323, 0.272]);
-        // The data set stores z̄(555) as 0.005749999; the sheet rounds it.
+        // The data set stores z̄(555) as 0.005749999; the check value is rounded.
         assert_eq!(row(555)[..2], [0.5120501, 1.0]);
         assert!((row(555)[2] - 0.00575).abs() < 1e-8);
         assert_eq!(row(600), [1.0622, 0.631, 0.0008]);
@@ -243,9 +244,9 @@ mod tests {
 
     #[test]
     fn planckian_locus_published_anchors() {
-        // Robertson (1968) table as reproduced in Wyszecki & Stiles,
-        // shared/science light-and-maps.md §1.5 [verified]; tolerance 2e-4
-        // covers range and step choices (§1.4).
+        // Robertson (1968) table as reproduced in Wyszecki & Stiles (verified:
+        // colour-science robertson1968.py); tolerance 2e-4 covers the choice of
+        // wavelength range and step (derived).
         for (t, x, y) in [(5000.0, 0.34510, 0.35162), (10_000.0, 0.28063, 0.28828)] {
             let (gx, gy) = xy(t);
             assert!(
@@ -257,7 +258,7 @@ mod tests {
         let (gx, gy) = xy(1e9);
         assert!((gx - 0.23987).abs() < 2e-4 && (gy - 0.23404).abs() < 2e-4);
         // Planck 2856 K vs CIE illuminant A (0.44757, 0.40745): A is defined
-        // with c2 = 1.435e-2 at 2848 K, so 5e-5 (§1.5).
+        // with c2 = 1.435e-2 at 2848 K, so 5e-5 (derived).
         let (gx, gy) = xy(2856.0);
         assert!((gx - 0.44757).abs() < 5e-5 && (gy - 0.40745).abs() < 5e-5);
         // Paeth (1987) 3-decimal table: 6500 K → (0.313, 0.324).
@@ -267,8 +268,9 @@ mod tests {
 
     #[test]
     fn planckian_locus_regression_table() {
-        // shared/science light-and-maps.md §1.5 computed table [computed here:
-        // CIE 1 nm, 360–830 nm, c2 = 1.4388e-2], 5-decimal values: 1e-5.
+        // Regression values computed with numpy 2.4.6 from the CIE 1931 2° 1 nm
+        // table (data/cie), 360–830 nm, c2 = 1.4388e-2 (derived), 5-decimal
+        // values: 1e-5.
         let rows = [
             (1000.0, 0.65275, 0.34446),
             (1500.0, 0.58572, 0.39312),
@@ -300,8 +302,8 @@ mod tests {
     #[test]
     fn kang_2002_spline_agrees() {
         // Kang et al. 2002, J. Korean Phys. Soc. 41, 865, cubic spline,
-        // check values from shared/science light-and-maps.md §1.6
-        // [computed here from verified coefficients]; spline vs integrated
+        // check values computed from its coefficients (derived; coefficients
+        // verified against colour-science kang2002.py); spline vs integrated
         // locus within 1e-3.
         for (t, x, y) in [
             (4000.0, 0.38053, 0.37673),
@@ -316,7 +318,7 @@ mod tests {
     #[test]
     fn mccamy_round_trip() {
         // McCamy (1992), Color Res. Appl., CCT from xy; a round-trip check
-        // good to ±1 % for 2000–9000 K (light-and-maps.md §1.7).
+        // good to ±1 % for 2000–9000 K (derived).
         for t in [2500.0, 3500.0, 5000.0, 6500.0, 8500.0] {
             let (x, y) = xy(t);
             let n = (x - 0.3320) / (0.1858 - y);
@@ -328,7 +330,8 @@ mod tests {
     #[test]
     fn d65_white_maps_to_equal_rgb() {
         // XYZ of D65 with Y = 1 → linear RGB ≈ (1.0000, 1.0001, 0.9998)
-        // (IEC 61966-2-1; light-and-maps.md §2.2), tolerance 5e-4 (§2.1).
+        // (IEC 61966-2-1 matrix; derived), tolerance 5e-4 for the standard's
+        // rounded matrix.
         let rgb = xyz_to_linear_srgb([0.95047, 1.0, 1.08883]);
         for c in rgb {
             assert!((c - 1.0).abs() < 5e-4, "{rgb:?}");
@@ -337,8 +340,8 @@ mod tests {
 
     #[test]
     fn transfer_function_values() {
-        // IEC 61966-2-1 transfer function; light-and-maps.md §2.2 [computed
-        // here from the verified formula].
+        // IEC 61966-2-1 transfer function; values computed by hand from the
+        // formula (derived).
         for (linear, encoded, byte) in [
             (0.001, 0.012920, 3),
             (0.0031308, 0.040450, 10),
@@ -353,8 +356,8 @@ mod tests {
 
     #[test]
     fn displayed_colours_match_regression_table() {
-        // light-and-maps.md §2.4, "computed sRGB (clip)" column [computed
-        // here: CIE 1931 table, IEC matrix, max channel = 1]: exact.
+        // Regression values computed with numpy 2.4.6 from the CIE 1931 table,
+        // the IEC 61966-2-1 matrix, clipping, max channel = 1 (derived): exact.
         for (t, want) in [
             (1000.0, "#ff1700"),
             (1500.0, "#ff6600"),
@@ -371,7 +374,9 @@ mod tests {
             assert_eq!(hex(color_rgb_direct(t)), want, "{t} K direct");
             assert_eq!(hex(color_rgb(t)), want, "{t} K table");
         }
-        // Rayleigh–Jeans limit (148, 177, 255), light-and-maps.md §2.4; our
+        // Rayleigh–Jeans limit (148, 177, 255): the same pipeline at 10⁹ K in
+        // numpy 2.4.6 (derived); also quoted for D. Madore's limit colour
+        // (secondary quote, primary source not found); our
         // hottest table entry is within one step of it.
         let hot = color_rgb(1e9);
         for (got, want) in hot.iter().zip([148u8, 177, 255]) {
@@ -382,8 +387,8 @@ mod tests {
     #[test]
     fn displayed_colours_near_charity_2deg() {
         // M. Charity, "What color is a blackbody?", 2° column (CIE 1931 with
-        // Judd–Vos corrections), rows quoted in light-and-maps.md §2.4
-        // [verified]; ±6/255 per channel for 3000–6500 K.
+        // Judd–Vos corrections), rows verified against public code embedding
+        // his table; ±6/255 per channel for 3000–6500 K.
         for (t, want) in [
             (3000.0, [0xff, 0xb9, 0x69]),
             (3500.0, [0xff, 0xc9, 0x87]),

@@ -47,7 +47,8 @@ mod tests {
 
     #[test]
     fn old_brown_dwarfs_are_late_l_or_t() {
-        // Mamajek table 2024.05.15 (stars.md §3 [verified]): L0V 2270 K, T0V 1255 K,
+        // Mamajek table version 2024.05.15 (Pecaut & Mamajek 2013, ApJS 208, 9, as
+        // maintained by E. Mamajek; verified): L0V 2270 K, T0V 1255 K,
         // Y0V 450 K; R ≈ 0.1 Rsun for L0–Y0. A 0.05 Msun object at 5 Gyr should lie in the
         // T range (between Y0 and L0), and old radii within 15 % of 0.1 Rsun.
         let t = teff_k(luminosity_lsun(0.05, 5.0), radius_rsun(5.0));

@@ -4,7 +4,6 @@
 //! IAU 2015 Resolution B3 (Prša et al. 2016, AJ 152, 41) for the nominal
 //! solar and planetary values; CODATA 2018 for the Stefan–Boltzmann
 //! constant; SI for the speed of light. All are exact by definition.
-//! Values transcribed from shared/science stars.md §1.
 
 /// Nominal solar luminosity, W (IAU 2015 B3, exact).
 pub const L_SUN_W: f64 = 3.828e26;
@@ -46,8 +45,8 @@ mod tests {
 
     #[test]
     fn nominal_sun_is_stefan_boltzmann_consistent() {
-        // (L/(4πR²σ))^(1/4) = 5772.0034 K ± 0.001: shared/science stars.md §1 [derived]
-        // from IAU 2015 B3 values and CODATA 2018 σ.
+        // (L/(4πR²σ))^(1/4) = 5772.0034 K ± 0.001, derived (computed by hand) from the
+        // IAU 2015 B3 values and CODATA 2018 σ.
         let teff =
             (L_SUN_W / (4.0 * std::f64::consts::PI * R_SUN_M * R_SUN_M * SIGMA_SB)).powf(0.25);
         assert!((teff - 5772.0034).abs() < 1e-3, "{teff}");
@@ -55,13 +54,14 @@ mod tests {
 
     #[test]
     fn black_hole_scale_per_solar_mass() {
-        // r_s = 2953.250 m per Msun from (GM)☉ nominal: stars.md §8f [derived], tol 1e-6 relative.
+        // r_s = 2GM/c² = 2953.250 m per Msun from the IAU 2015 B3 nominal (GM)☉ (derived),
+        // tol 1e-6 relative.
         assert!((SCHWARZSCHILD_M_PER_MSUN / 2953.250 - 1.0).abs() < 1e-6);
     }
 
     #[test]
     fn solar_surface_gravity() {
-        // log g☉ = 4.438 (cgs), IAU 2015 B3 nominal GM and R: 274.2 m/s² [derived].
+        // log g☉ = 4.438 (cgs), IAU 2015 B3 nominal GM and R: 274.2 m/s² (derived).
         let log_g_cgs = (G_SURFACE_SUN_M_S2 * 100.0).log10();
         assert!((log_g_cgs - 4.438).abs() < 1e-3, "{log_g_cgs}");
     }

@@ -3,7 +3,8 @@
 //! # Source
 //! L = 4πR²σT⁴ written in nominal solar units (IAU 2015 B3):
 //! `Teff = 5772 K · L^(1/4) · R^(-1/2)`, exact because the nominal L, R and
-//! Teff are mutually consistent (shared/science stars.md §1).
+//! Teff are mutually consistent: (L/(4πR²σ))^(1/4) = 5772.0034 K with
+//! CODATA 2018 σ (derived).
 
 use super::constants::TEFF_SUN_K;
 
@@ -55,10 +56,11 @@ mod tests {
     fn solar_and_mamajek_rows() {
         // L = R = 1 gives 5772 K exactly: IAU 2015 B3 definition.
         assert_eq!(teff_k(1.0, 1.0), 5772.0);
-        // Pecaut & Mamajek 2013 / Mamajek table 2024.05.15 rows, via stars.md §1 [verified]:
+        // Pecaut & Mamajek 2013 (ApJS 208, 9) / Mamajek table version 2024.05.15 rows
+        // (verified against the author's public data repository):
         check(0.010, 1.012, 5770.0, 5.0); // G2V
         check(-2.520, 0.196, 3060.0, 10.0); // M5V
-        check(4.820, 7.72, 33_306.0, 5.0); // O9V (table 33 300; stars.md §1 derived 33 306)
+        check(4.820, 7.72, 33_306.0, 5.0); // O9V (table 33 300; derived from its L, R: 33 306)
     }
 
     #[test]

@@ -551,7 +551,7 @@ mod tests {
         assert_eq!(sun.kind, StarKind::MainSequence);
         assert!(rel(sun.luminosity_lsun, 1.0) < 0.02 && rel(sun.radius_rsun, 1.0) < 0.02);
         assert!(rel(sun.teff_k, 5772.0) < 0.02);
-        // HPT2000 1 Msun milestones (stars.md §7 [derived]): subgiant from 11.0 to 11.58 Gyr.
+        // HPT2000 eqs 4–5, 1 Msun, Z = 0.02 (derived): subgiant from 11.0 to 11.58 Gyr.
         assert_eq!(at(1.0, 11.2).kind, StarKind::Subgiant);
         assert_eq!(at(1.0, 11.7).kind, StarKind::Giant);
     }
@@ -560,7 +560,7 @@ mod tests {
     fn solar_giant_branch_tip_and_white_dwarf() {
         let track = Track::new(1.0, &RemnantThresholds::default());
         let tip = track.state_at(track.t_hei_gyr - 1e-9, &RemnantThresholds::default());
-        // Sackmann et al. 1993 [verified abstract]: tip ≈ 2300 Lsun, 170 Rsun, 0.275 Msun lost.
+        // Sackmann et al. 1993 (verified: abstract): tip ≈ 2300 Lsun, 170 Rsun, 0.275 Msun lost.
         // Our tip is the HPT2000 L(Mc = 0.47) = 2527 Lsun: allow 15 % in L, 20 % in R.
         assert_eq!(tip.kind, StarKind::Giant);
         assert!(
@@ -570,11 +570,11 @@ mod tests {
         );
         assert!(rel(tip.radius_rsun, 170.0) < 0.20, "{}", tip.radius_rsun);
         assert!((tip.mass_msun - 0.725).abs() < 0.01);
-        // Giant-branch duration: a few hundred Myr (stars.md §7: SGB+RGB ≈ 8–10 % of the
-        // MS, from memory); accept 0.2–1.5 Gyr.
+        // Giant-branch duration: a few hundred Myr (SGB+RGB ≈ 8–10 % of the MS lifetime,
+        // from memory); accept 0.2–1.5 Gyr.
         let gb = track.t_hei_gyr - track.t_bgb_gyr;
         assert!((0.2..1.5).contains(&gb), "{gb}");
-        // Schröder & Smith 2008 [verified abstract]: final white dwarf 0.5405 Msun;
+        // Schröder & Smith 2008 (verified: abstract): final white dwarf 0.5405 Msun;
         // Cummings 2018 gives 0.569; allow 0.04.
         let wd = at(1.0, 13.8);
         assert_eq!(wd.kind, StarKind::WhiteDwarf);
@@ -582,8 +582,9 @@ mod tests {
     }
 
     #[test]
-    fn example_from_the_issue() {
-        // Issue 2: 1.5 Msun at 12 Gyr is a white dwarf of about 0.6 Msun, initial 1.5.
+    fn a_1_5_msun_star_at_12_gyr_is_a_white_dwarf() {
+        // Worked example: 1.5 Msun at 12 Gyr is a white dwarf of about 0.6 Msun, initial 1.5
+        // (Cummings et al. 2018 MIST fit: 0.609; derived).
         let wd = at(1.5, 12.0);
         assert_eq!(wd.kind, StarKind::WhiteDwarf);
         assert!((wd.mass_msun - 0.6).abs() < 0.02);
@@ -611,7 +612,7 @@ mod tests {
         let mid = 0.5 * (track.t_hei_gyr + track.t_che_end_gyr);
         let s = track.state_at(mid, &RemnantThresholds::default());
         assert_eq!(s.kind, StarKind::Supergiant);
-        // Red supergiants: L ~ 1e4–1e6 Lsun, R ~ 100–1500 Rsun (stars.md §7, from memory).
+        // Red supergiants: L ~ 1e4–1e6 Lsun, R ~ 100–1500 Rsun (from memory, not verified).
         assert!(
             (1e4..1e6).contains(&s.luminosity_lsun),
             "{}",
@@ -626,7 +627,7 @@ mod tests {
 
     #[test]
     fn red_clump() {
-        // Red clump ≈ 50 Lsun, ≈ 10 Rsun for low-mass stars (task brief; from memory),
+        // Red clump ≈ 50 Lsun, ≈ 10 Rsun for low-mass stars (from memory),
         // Teff ≈ 4500–5000 K (from memory): check 1.2 Msun mid core-helium burning.
         let track = Track::new(1.2, &RemnantThresholds::default());
         let s = track.state_at(

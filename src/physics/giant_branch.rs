@@ -4,7 +4,8 @@
 //! # Source
 //! - Core-mass–luminosity relation and core growth: Hurley, Pols & Tout
 //!   2000 (MNRAS 315, 543) §5.2, as coded in their SSE Fortran (zfuncs.f,
-//!   star.f) and transcribed in shared/science stars.md §7: `L = D Mc^p`
+//!   star.f; verified against the Fortran as redistributed in two public
+//!   codes): `L = D Mc^p`
 //!   below `Mx = (B/D)^(1/(p−q))`, `L = B Mc^q` above, with
 //!   `dMc/dt = A_H L`. Integrating the growth law gives the time to grow the
 //!   core from one mass to another in closed form (HPT2000 eqs 38–40 do
@@ -12,7 +13,7 @@
 //! - Radius: the form of HPT2000 eq. 46, `R = A (L^0.4 + 0.383 L^0.76)`,
 //!   with our own `A = 0.958 M^-0.33`: the constant puts a 1 Msun star
 //!   that lost 0.275 Msun at 2300 Lsun and 170 Rsun at the tip of the giant
-//!   branch (Sackmann et al. 1993, ApJ 418, 457 [verified abstract]); the
+//!   branch (Sackmann et al. 1993, ApJ 418, 457; verified: abstract); the
 //!   mass exponent is from memory of HPT2000's b75 (unverified). The same
 //!   relation is used on the asymptotic giant branch, and radii are capped
 //!   at 1500 Rsun, about the largest red supergiants (from memory,
@@ -153,7 +154,8 @@ mod tests {
 
     #[test]
     fn core_mass_luminosity_check_values() {
-        // HPT2000 / SSE relation at M = 1, Z = 0.02: stars.md §7 check values [derived], 1e-4.
+        // HPT2000 / SSE relation at M = 1, Z = 0.02; check values computed from it (derived),
+        // 1e-4.
         let cml = CoreMassLuminosity::new(1.0);
         assert!(rel(cml.d, 2.3442e5) < 1e-4);
         assert!(rel(cml.b, 3.0e4) < 1e-12);
@@ -191,14 +193,14 @@ mod tests {
 
     #[test]
     fn tip_of_the_giant_branch() {
-        // Sackmann et al. 1993 [verified abstract]: RGB tip of the Sun ≈ 2300 Lsun, 170 Rsun,
+        // Sackmann et al. 1993 (verified: abstract): RGB tip of the Sun ≈ 2300 Lsun, 170 Rsun,
         // after losing 0.275 Msun. Calibration point of the radius constant: 2 % guard.
         assert!(rel(giant_radius_rsun(2300.0, 0.725), 170.0) < 0.02);
     }
 
     #[test]
     fn red_clump_radius_is_about_ten_solar_radii() {
-        // Red clump ≈ 50 Lsun, ≈ 10 Rsun (task brief; stars.md §7 "from memory"). The giant
+        // Red clump ≈ 50 Lsun, ≈ 10 Rsun (from memory, not verified). The giant
         // branch at clump luminosity is larger; core-helium stars use 0.8 of it (evolution.rs).
         let r = 0.8 * giant_radius_rsun(50.0, 0.725);
         assert!((8.0..13.0).contains(&r), "{r}");

@@ -33,8 +33,8 @@ pub const HZ_TEFF_REFERENCE_K: f64 = 5780.0;
 type Coefficients = [f64; 5];
 
 // Kopparapu et al. 2013, ApJ 765, 131, Table 3, updated coefficients
-// (erratum / authors' website), as given in shared/science light-and-maps.md
-// §4.2 [verified: ≥6 independent implementations].
+// (erratum / authors' website); verified: identical digits in six or more
+// independent public implementations (the erratum itself not read).
 const K13_RECENT_VENUS: Coefficients = [1.7753, 1.4316e-4, 2.9875e-9, -7.5702e-12, -1.1635e-15];
 const K13_MOIST_GREENHOUSE: Coefficients = [1.0140, 8.1774e-5, 1.7063e-9, -4.3241e-12, -6.6462e-16];
 const K13_MAXIMUM_GREENHOUSE: Coefficients =
@@ -42,7 +42,8 @@ const K13_MAXIMUM_GREENHOUSE: Coefficients =
 const K13_EARLY_MARS: Coefficients = [0.3179, 5.4513e-5, 1.5313e-9, -2.7786e-12, -4.8997e-16];
 
 // Kopparapu et al. 2014, ApJL 787, L29, runaway greenhouse by planet mass, as
-// in the authors' code (light-and-maps.md §4.3) [verified].
+// in the authors' code (R. K. Kopparapu 2014, Python translation by
+// J. Armstrong; verified against that code).
 const K14_RUNAWAY_0_1_EARTH: Coefficients = [0.99, 1.209e-4, 1.404e-8, -7.418e-12, -1.713e-15];
 const K14_RUNAWAY_1_EARTH: Coefficients = [1.107, 1.332e-4, 1.580e-8, -8.308e-12, -1.931e-15];
 const K14_RUNAWAY_5_EARTH: Coefficients = [1.188, 1.433e-4, 1.707e-8, -8.968e-12, -2.084e-15];
@@ -174,8 +175,8 @@ mod tests {
 
     #[test]
     fn kopparapu_check_table() {
-        // shared/science light-and-maps.md §4.5 [computed here from the
-        // verified K13/K14 coefficients], 4 decimals: tolerance 6e-5 au.
+        // Check values computed from the K13/K14 coefficients above (derived),
+        // 4 decimals: tolerance 6e-5 au.
         // (Teff, L, K13 RV, MoistGH, MaxGH, EM, K14 RG 1 M⊕)
         let rows = [
             (5780.0, 1.0, 0.7505, 0.9931, 1.7055, 1.7736, 0.9504),
@@ -216,11 +217,12 @@ mod tests {
     #[test]
     fn published_solar_system_anchors() {
         // K13 Solar System conservative HZ 0.99–1.70 au (Kopparapu et al.
-        // 2013 abstract; light-and-maps.md §4.5 [verified]).
+        // 2013, ApJ 765, 131, abstract; verified).
         let hz = habitable_zone(5780.0, 1.0);
         assert!(close(hz.inner_au, 0.99, 0.005) && close(hz.outer_au, 1.70, 0.01));
         // K14: 5 M⊕ inner edge at ~7 % higher flux, 0.1 M⊕ at ~10 % lower
-        // (abstract [verified]); 1/√S gives 0.918 and 1.005 au [computed here].
+        // (Kopparapu et al. 2014 abstract, verified); 1/√S gives 0.918 and 1.005 au
+        // (derived).
         let (five, _) = runaway_greenhouse_au(5780.0, 1.0, PlanetMass::FiveEarths);
         let (tenth, _) = runaway_greenhouse_au(5780.0, 1.0, PlanetMass::TenthEarth);
         // Three decimals: tolerance 6e-4.
@@ -253,7 +255,7 @@ mod tests {
     fn rule_of_thumb() {
         // √(L/1.1), √(L/0.53): 0.953 / 1.374 au for the Sun, the Kasting,
         // Whitmire & Reynolds 1993 (Icarus 101, 108) standard-model HZ of
-        // 0.95–1.37 au (light-and-maps.md §4.4 [verified]).
+        // 0.95–1.37 au (verified: Kasting et al. 1993, Table 5 as reproduced in PMC5008114).
         let hz = habitable_zone_rules(1.0);
         assert!(close(hz.inner_au, 0.953, 5e-4) && close(hz.outer_au, 1.374, 5e-4));
         assert!(close(hz.inner_au, 0.95, 0.005) && close(hz.outer_au, 1.37, 0.005));

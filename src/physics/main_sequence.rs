@@ -3,11 +3,14 @@
 //!
 //! # Source
 //! - ZAMS L(M), R(M): Tout, Pols, Eggleton & Han 1996, MNRAS 281, 257,
-//!   eqs 1–2, Z = 0.02 coefficients (the c0 column of Tables 1 and 2, as
-//!   transcribed in shared/science stars.md §2b). At Z = 0.02 the
+//!   eqs 1–2, Z = 0.02 coefficients (the c0 column of Tables 1 and 2;
+//!   verified: several independent code transcriptions agree digit for
+//!   digit). At Z = 0.02 the
 //!   metallicity polynomials (eq. 3) reduce to c0, so they are folded in.
 //! - Lifetimes t_BGB, t_MS: Hurley, Pols & Tout 2000, MNRAS 315, 543,
-//!   eqs 4–7, Appendix A coefficients at Z = 0.02 (stars.md §2d).
+//!   eqs 4–7, Appendix A coefficients at Z = 0.02 (equation forms verified
+//!   against the authors' SSE Fortran, zfuncs.f/zcnsts.f; a1–a10 from one
+//!   independent code transcription of Appendix A).
 //! - Evolution across the main sequence: a simpler prescription than
 //!   HPT2000 §5.1 (whose coefficients a11–a49 we have not verified):
 //!   `log L(τ) = log L_ZAMS + ΔlogL(M) · (a_L τ + (1 − a_L) τ²)`, the same
@@ -281,7 +284,8 @@ mod tests {
 
     #[test]
     fn tout_zams_check_values() {
-        // Tout et al. 1996 eqs 1–2, Z = 0.02: stars.md §2b check table [derived], rel tol 1e-4.
+        // Tout et al. 1996 eqs 1–2, Z = 0.02; check values computed from these equations
+        // (derived), rel tol 1e-4.
         check_table(
             zams_luminosity_lsun,
             &[
@@ -320,13 +324,14 @@ mod tests {
 
     #[test]
     fn zams_sun_matches_sackmann() {
-        // ZAMS Sun ≈ 0.7 Lsun: Sackmann et al. 1993, ApJ 418, 457 [verified abstract], tol 5 %.
+        // ZAMS Sun ≈ 0.7 Lsun: Sackmann et al. 1993, ApJ 418, 457 (verified: abstract), tol 5 %.
         assert!(rel(zams_luminosity_lsun(1.0), 0.7) < 0.05);
     }
 
     #[test]
     fn hpt_lifetime_check_values() {
-        // HPT2000 eqs 4–7 at Z = 0.02: stars.md §2d check table [derived], rel tol 1e-4
+        // HPT2000 eqs 4–7 at Z = 0.02; check values computed from these equations (derived),
+        // rel tol 1e-4
         // (table values are rounded to 4 digits, hence the looser tolerance on some rows).
         check_table(
             t_bgb_gyr,
@@ -382,9 +387,10 @@ mod tests {
                 assert!(rel(below, above) < 1e-9, "edge {edge}");
             }
         }
-        // M9V (0.079 Msun): log L = −3.52, R = 0.102 (Mamajek table 2024.05.15, stars.md §3
-        // [verified]). Old field star vs our ZAMS extrapolation: within 0.25 dex in L and
-        // 10 % in R (our own tolerance for an extrapolation).
+        // M9V (0.079 Msun): log L = −3.52, R = 0.102 (Mamajek table version 2024.05.15,
+        // verified against the author's public data repository). Old field star vs our ZAMS
+        // extrapolation: within 0.25 dex in L and 10 % in R (our own tolerance for an
+        // extrapolation).
         let l = zams_luminosity_lsun(0.079).log10();
         assert!((l + 3.52).abs() < 0.25, "{l}");
         assert!(rel(zams_radius_rsun(0.079), 0.102) < 0.10);
@@ -398,7 +404,7 @@ mod tests {
         let (l, r) = main_sequence_l_r(1.0, tau);
         assert!(rel(l, 1.0) < 0.01 && rel(r, 1.0) < 0.01, "{l} {r}");
         assert!((teff_k(l, r) - 5772.0).abs() < 0.01 * 5772.0);
-        // End of core hydrogen burning: 2.2 Lsun (Sackmann et al. 1993 [verified abstract]), 3 %.
+        // End of core hydrogen burning: 2.2 Lsun (Sackmann et al. 1993, verified: abstract), 3 %.
         let (l_end, _) = main_sequence_l_r(1.0, 1.0);
         assert!(rel(l_end, 2.2) < 0.03, "{l_end}");
     }

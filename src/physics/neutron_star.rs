@@ -5,13 +5,14 @@
 //! - Radius 12.5 km for every mass: consistent with the NICER radii of
 //!   PSR J0030+0451 (Miller et al. 2019, ApJL 887, L24: 13.02 +1.24/−1.06 km;
 //!   Riley et al. 2019: 12.71 km) and PSR J0740+6620 (Salmi et al. 2024:
-//!   12.49 +1.28/−0.88 km), shared/science stars.md §8d.
+//!   12.49 +1.28/−0.88 km); values verified against the abstracts, except
+//!   Riley et al. 2019 (from memory).
 //! - Mass: the remnant-mass rule of Belczynski et al. 2002 as coded in SSE
-//!   (hrdiag.f, stars.md §8d, verified): `M = 0.161767 Mc + 1.067055` for
+//!   (hrdiag.f, verified against the SSE Fortran): `M = 0.161767 Mc + 1.067055` for
 //!   a CO core Mc < 2.5 Msun, `0.314154 Mc + 0.686088` above. The CO core
 //!   mass comes from our own linear approximation `Mc = 0.25 M_i − 1.0`
 //!   (not from a paper), giving 1.23 Msun at M_i = 7.91 and 1.94 Msun at
-//!   20 Msun, inside the observed 1.2–2.1 Msun (stars.md, from memory).
+//!   20 Msun, inside the observed 1.2–2.1 Msun (range from memory).
 //! - Cooling: a schematic of our own shaped on standard cooling curves
 //!   (Yakovlev & Pethick 2004, ARA&A 42, 169, from memory): a
 //!   neutrino-cooling plateau `T = 10^6 K (t / 10^5 yr)^(-1/12)` until
@@ -73,15 +74,16 @@ mod tests {
 
     #[test]
     fn radius_inside_nicer_intervals() {
-        // NICER 68 % intervals (stars.md §8d, verified): J0030 (Miller 2019) 11.96–14.26 km,
-        // J0740 (Salmi 2024) 11.61–13.77 km.
+        // NICER 68 % intervals (verified against the abstracts): J0030 (Miller et al. 2019,
+        // ApJL 887, L24) 11.96–14.26 km, J0740 (Salmi et al. 2024) 11.61–13.77 km.
         assert!((11.96..=14.26).contains(&RADIUS_KM));
         assert!((11.61..=13.77).contains(&RADIUS_KM));
     }
 
     #[test]
     fn belczynski_rule_and_mass_range() {
-        // Belczynski 2002 as coded in SSE: continuous at Mc = 2.5 (stars.md §8d, verified).
+        // Belczynski et al. 2002 as coded in SSE hrdiag.f (verified against the Fortran):
+        // continuous at Mc = 2.5.
         let below: f64 = 0.161_767 * 2.5 + 1.067_055;
         let above = 0.314_154 * 2.5 + 0.686_088;
         assert!((below - above).abs() < 1e-4);

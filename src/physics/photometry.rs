@@ -229,7 +229,7 @@ mod tests {
     #[test]
     fn bolometric_zero_point() {
         // IAU 2015 B2: L☉ = 3.828e26 W, L₀ = 3.0128e28 W → 4.739996
-        // (light-and-maps.md §3.1 [verified]).
+        // (verified: Mamajek et al. 2015, arXiv:1510.06262, abstract).
         let from_l0 = -2.5 * (3.828e26_f64 / 3.0128e28).log10();
         assert!(close(from_l0, 4.739996, 1e-6));
         assert!(close(abs_mag_bol(1.0), 4.74, 1e-12));
@@ -241,8 +241,8 @@ mod tests {
 
     #[test]
     fn torres_bc_check_values() {
-        // light-and-maps.md §3.5 [computed here from the verified Torres 2010
-        // Table 1 coefficients], 3 decimals.
+        // Computed by hand from the Torres 2010 (AJ 140, 1158) Table 1 coefficients
+        // (derived), 3 decimals.
         for (teff, bc) in [
             (5772.0, -0.081),
             (5777.0, -0.080),
@@ -262,8 +262,8 @@ mod tests {
                 bc_v_torres(teff)
             );
         }
-        // Documented discontinuities (§3.3): 0.022 mag at log T = 3.70,
-        // about 0.003 at 3.90.
+        // Discontinuities of the Torres 2010 fit at its segment boundaries (derived):
+        // 0.022 mag at log T = 3.70, about 0.003 at 3.90.
         let jump = |x: f64| bc_v_torres(10f64.powf(x + 1e-12)) - bc_v_torres(10f64.powf(x - 1e-12));
         assert!(close(jump(3.70).abs(), 0.022, 0.002));
         assert!(jump(3.90).abs() < 0.005);
@@ -271,16 +271,16 @@ mod tests {
 
     #[test]
     fn sun_and_sirius() {
-        // Sun: M_V = 4.821 with M_bol,☉ 4.74 (light-and-maps.md §3.5
-        // [computed here]; Willmer 2018 M_V,☉ = 4.81 [verified]).
+        // Sun: M_V = 4.821 with M_bol,☉ 4.74 (derived: IAU 2015 B2 and Torres 2010
+        // BC); Willmer 2018, ApJS 236, 47: M_V,☉ = 4.81 (verified: abstract).
         let sun = abs_mag_v(StarKind::MainSequence, 5772.0, 1.0);
         assert!(close(sun, 4.821, 1e-3));
         assert!(close(sun, 4.81, 0.02));
         // Sun at 1 au: V = −26.75 vs the measured −26.76 ± 0.03 (Torres 2010).
         assert!(close(apparent_mag(sun, 1.0 / AU_PER_LY), -26.76, 0.03));
         // Sirius A, A1V, 9940 K, 25.4 L☉, 2.64 pc: M_bol 1.228, BC −0.237,
-        // M_V 1.465, V −1.43 [computed here]; published M_V 1.42, V −1.47,
-        // tolerance 0.1 mag (light-and-maps.md §3.5).
+        // M_V 1.465, V −1.43 (derived); published M_V 1.42, V −1.47 (commonly quoted
+        // values for α CMa A, not checked against a primary source), tolerance 0.1 mag.
         let teff = 9940.0;
         assert!(close(abs_mag_bol(25.4), 1.228, 1e-3));
         assert!(close(
@@ -297,8 +297,8 @@ mod tests {
     #[test]
     fn distance_modulus() {
         // m − M = 5 log10(d/10 pc) (standard definition): 0 at 10 pc, +5 at
-        // 100 pc. Limits of light-and-maps.md §3.5: a star of M_V 4.82 /
-        // 1.45 / −5 reaches V = 6.5 at 21.7 / 102 / 1995 pc [computed here].
+        // 100 pc. Naked-eye limit V = 6.5 (Hoffleit 1982, Bright Star Catalogue):
+        // a star of M_V 4.82 / 1.45 / −5 reaches it at 21.7 / 102 / 1995 pc (derived).
         let ly = |pc: f64| pc * crate::units::LY_PER_PC;
         assert!(close(apparent_mag(3.0, ly(10.0)), 3.0, 1e-9));
         assert!(close(apparent_mag(3.0, ly(100.0)), 8.0, 1e-9));
@@ -397,7 +397,7 @@ mod tests {
     #[test]
     fn b_minus_v_to_teff() {
         // Torres 2010 Table 2: B−V 0.65 → 5718 K, 0.00 → 9531 K
-        // (light-and-maps.md §3.3 [computed here from verified coefficients]).
+        // (derived: computed by hand from the Table 2 coefficients).
         assert!(close(teff_from_b_minus_v(0.65, false), 5718.0, 1.0));
         assert!(close(teff_from_b_minus_v(0.0, false), 9531.0, 1.0));
         // The Sun's B−V 0.65 (Mamajek G2V row) against 5772 K: within 1 %.

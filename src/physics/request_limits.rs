@@ -77,7 +77,7 @@ mod tests {
     use super::*;
 
     #[test]
-    fn ranges_from_the_issue() {
+    fn allowed_ranges_of_each_kind() {
         assert_eq!(allowed_mass_range(KindChoice::Auto), (0.013, 150.0));
         assert_eq!(
             allowed_mass_range(KindChoice::Explicit(StarKind::WhiteDwarf)).1,

@@ -2,8 +2,9 @@
 //!
 //! - Main sequence: `L = M^3.5`, `R = M^0.8` below 1 Msun and `M^0.5` from
 //!   1 Msun, lifetime `t_MS = 10 Gyr · M / L`, no change with age; Teff from
-//!   the Stefan–Boltzmann law. Common practice, no source (shared/science
-//!   stars.md §2a shows how far these are from the fitted relations).
+//!   the Stefan–Boltzmann law. Common practice, no source (at 0.5 Msun
+//!   `M^3.5` gives 0.088 Lsun against 0.033 from Eker et al. 2018, and the
+//!   lifetime 56.6 Gyr against 128.8 from Hurley, Pols & Tout 2000; derived).
 //! - After the main sequence: one giant stage lasting 10 % of t_MS with
 //!   `L = max(10 L_MS, 100 Lsun)` at 4500 K (`supergiant` above 10 Msun, at
 //!   4000 K). Common practice, no source.
@@ -137,7 +138,7 @@ mod tests {
 
     #[test]
     fn textbook_values() {
-        // The rules' own table (stars.md §2a [derived from the rules]): M^3.5 at 0.5 → 0.088,
+        // Values computed by hand from the rules themselves (derived): M^3.5 at 0.5 → 0.088,
         // 2 → 11.3, 10 → 3162; t_MS 56.6 Gyr, 10.0, 1.77, 0.0316 Gyr.
         for (m, l, t) in [
             (0.5, 0.088, 56.6),
@@ -150,7 +151,8 @@ mod tests {
         }
         assert!((radius_ms_rsun(0.5) - 0.5f64.powf(0.8)).abs() < 1e-12);
         assert_eq!(radius_ms_rsun(4.0), 2.0);
-        // Kalirai et al. 2008 check values (stars.md §8a [verified]): 1 → 0.503, 3 → 0.721.
+        // Kalirai et al. 2008, ApJ 676, 594, M_f = 0.109 M_i + 0.394 (verified: several code
+        // transcriptions); check values derived from it: 1 → 0.503, 3 → 0.721.
         assert!((white_dwarf_mass_msun(1.0) - 0.503).abs() < 1e-9);
         assert!((white_dwarf_mass_msun(3.0) - 0.721).abs() < 1e-9);
     }

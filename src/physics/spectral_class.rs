@@ -15,9 +15,9 @@
 //! - Brown dwarfs: the L/T/Y (or late-M) subtype with no luminosity class.
 //! - Neutron stars `NS` and black holes `BH`: our own short codes.
 //!
-//! Nearest subtype rule (shared/science stars.md §3): the boundary between
-//! two adjacent rows is the midpoint of their Teff, and `Teff ≥ boundary`
-//! gives the hotter row.
+//! Nearest subtype rule (our own convention, applied to the rows of the
+//! Mamajek table): the boundary between two adjacent rows is the midpoint of
+//! their Teff, and `Teff ≥ boundary` gives the hotter row.
 
 use super::kinds::{ClassCode, StarKind};
 
@@ -136,15 +136,16 @@ const fn row(
 /// # Source
 /// Pecaut & Mamajek 2013, ApJS 208, 9, Table 5, as extended and maintained
 /// by E. Mamajek, "A Modern Mean Dwarf Stellar Color and Effective
-/// Temperature Sequence". The reference sheet quotes version 2024.05.15;
-/// that file was not available here, so the rows come from two public
+/// Temperature Sequence". The current version is 2024.05.15 (author's
+/// public data repository, emamajek/SpectralType); that file was not
+/// available here, so the rows come from two public
 /// copies of earlier versions, each shipped inside a Python package:
 /// O3V–M8.5V from version 2022.04.16 (triceratops 1.1.0,
 /// `data/mamajek_dwarf_sequence.csv`; log L computed from its M_V and BC_V
 /// with M_bol,☉ = 4.74) and M9V–Y2V from version 2019.3.22 (sedkit 2.1,
-/// `data/dwarf_sequence.txt`, log L as tabulated). The rows quoted from
-/// 2024.05.15 in shared/science stars.md §3 agree in Teff to ≤ 1 % for
-/// O9V–M9V; the L/T/Y Teffs of 2019.3.22 are up to 70 K cooler.
+/// `data/dwarf_sequence.txt`, log L as tabulated). Rows of version
+/// 2024.05.15 agree with these in Teff to ≤ 1 % for O9V–M9V; the L/T/Y
+/// Teffs of 2019.3.22 are up to 70 K cooler.
 pub const DWARF_SEQUENCE: [DwarfRow; 117] = [
     // Rows O3V-M8.5V: table version 2022.04.16 (log L from M_V + BC_V with M_bol,sun = 4.74).
     row("O3V", 44900.0, 5.82, 13.43, 59.0, -4.01, -5.8),
@@ -509,7 +510,7 @@ mod tests {
     #[test]
     fn table_rows_obey_stefan_boltzmann() {
         // Self-consistency of Mamajek's table: log L = 2 log R + 4 log(Teff/5772)
-        // to ≤ 0.01 dex for his 2024 rows (shared/science stars.md §3 [derived]).
+        // to ≤ 0.01 dex for his 2024.05.15 rows (derived: computed from those rows).
         // The copies embedded here round log L (2019 rows, 2 decimals) and
         // M_V/BC_V (2022 rows, 0.01 mag = 0.004 dex each), so allow 0.02 dex.
         // Two rows of the 2022.04.16 copy miss by more (B6V 0.061 dex, B8V
@@ -539,8 +540,9 @@ mod tests {
 
     #[test]
     fn rows_agree_with_the_2024_version() {
-        // Rows of Mamajek's table version 2024.05.15 quoted in shared/science
-        // stars.md §3 [verified: author's public data repository]:
+        // Rows of E. Mamajek's "A Modern Mean Dwarf Stellar Color and Effective
+        // Temperature Sequence", version 2024.05.15 (verified against the
+        // author's public data repository, emamajek/SpectralType):
         // (SpT, Teff K, log L, R Rsun). Our rows come from earlier versions
         // (see DWARF_SEQUENCE), so Teff within 1 %, log L within 0.06 dex and
         // R within 7 % for O–M; Teff within 6 % for L/T/Y.
@@ -587,7 +589,7 @@ mod tests {
 
     #[test]
     fn dwarf_lookup_follows_the_midpoint_rule() {
-        // Lookup tests in shared/science stars.md §3 [derived from verified rows].
+        // Lookups derived by hand from the Mamajek 2024.05.15 rows (derived).
         let ms = StarKind::MainSequence;
         assert_eq!(class(ms, 5772.0, 1.0), "G2V");
         assert_eq!(class(ms, 3900.0, 0.06), "K9V");
@@ -595,14 +597,15 @@ mod tests {
         assert_eq!(class(ms, 2300.0, 3e-4), "M9.5V");
         // Half subtypes where the table has them (M4.5V: 3110 K, 2022 table).
         assert_eq!(class(ms, 3110.0, 4e-3), "M4.5V");
-        // Exactly on a boundary goes to the hotter row (stars.md §3 rule):
+        // Exactly on a boundary goes to the hotter row (midpoint rule above):
         // G2V 5770 / G3V 5720 → boundary 5745.
         assert_eq!(class(ms, 5745.0, 1.0), "G2V");
         assert_eq!(class(ms, 5744.9, 1.0), "G3V");
         // Ends clamp.
         assert_eq!(class(ms, 80_000.0, 1e6), "O3V");
         assert_eq!(class(ms, 100.0, 1e-7), "Y2V");
-        // Sirius A, A1V, Teff 9940 K (light-and-maps.md §3.5): nearest row
+        // Sirius A, A1V, Teff 9940 K (commonly quoted value, not checked
+        // against a primary source): nearest row
         // A0V 9700 K (B9.5V/A0V boundary 10 050 K) — one subtype off, as the
         // table's A0V/A1V boundary is 9500 K.
         assert_eq!(class(ms, 9940.0, 25.4), "A0V");

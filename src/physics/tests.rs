@@ -216,7 +216,7 @@ fn black_holes_have_no_light_but_finite_numbers() {
     );
     assert_eq!((p.luminosity_lsun, p.teff_k), (0.0, 0.0));
     assert_eq!(p.color_rgb, [0, 0, 0]);
-    // r_s = 29.5325 km for 10 Msun (stars.md §8f [derived]).
+    // r_s = 2GM/c² = 29.5325 km for 10 Msun from the IAU 2015 B3 nominal (GM)☉ (derived).
     assert!((p.schwarzschild_km() - 29.5325).abs() < 1e-3);
     assert!((p.radius_km() - 29.5325).abs() < 1e-3);
     assert!((p.isco_km() / p.photon_sphere_km() - 2.0).abs() < 1e-12);
@@ -226,8 +226,8 @@ fn black_holes_have_no_light_but_finite_numbers() {
 #[test]
 fn derived_quantities_of_the_sun() {
     // Nominal Sun (IAU 2015 B3, CODATA 2018 G): mean density 3M/(4πR³) = 1409.8 kg/m³
-    // [derived; the often quoted 1408 uses older M and R], surface gravity 274.2 m/s²
-    // [derived], circumference 2π·695 700 km = 4.3712e6 km.
+    // (derived; the often quoted 1408 uses older M and R), surface gravity 274.2 m/s²
+    // (derived), circumference 2π·695 700 km = 4.3712e6 km.
     let sun = StarProfile {
         radius_rsun: 1.0,
         mass_msun: 1.0,
@@ -253,7 +253,8 @@ fn habitable_host_flag_on_profiles() {
 
 #[test]
 fn main_sequence_against_the_mamajek_dwarf_sequence() {
-    // Pecaut & Mamajek 2013 / Mamajek table 2024.05.15 (stars.md §3 [verified]): rows of
+    // Pecaut & Mamajek 2013 (ApJS 208, 9) / Mamajek table version 2024.05.15 (verified
+    // against the author's public data repository): rows of
     // (M, log L, R). The table describes field dwarfs of mixed age; we compare with our
     // star at min(4.6 Gyr, 0.4 t_MS). Tolerance: 0.12 dex in L and 16 % in R, the
     // documented accuracy of a ZAMS fit plus our main-sequence prescription (Tout 1996
@@ -304,7 +305,7 @@ fn masses_beyond_the_allowed_range_stay_finite() {
 
 #[test]
 fn rules_fidelity_profiles() {
-    // The issue's rules (common practice, no source): L = M^3.5, R = M^0.8 / M^0.5,
+    // Textbook rules (common practice, no source): L = M^3.5, R = M^0.8 / M^0.5,
     // t_MS = 10 Gyr M/L, Teff by Stefan–Boltzmann (5772 K at L = R = 1, IAU 2015 B3),
     // HZ sqrt(L/1.1)..sqrt(L/0.53) au.
     let sun = profile(1.0, 4.6, KindChoice::Auto, Fidelity::Rules);
@@ -320,7 +321,8 @@ fn rules_fidelity_profiles() {
     assert!((a_star.lifetime_gyr - 10.0 * 2.0 / 2f64.powf(3.5)).abs() < 1e-12);
     let expected_teff = 5772.0 * 2f64.powf(3.5 / 4.0) / 2f64.powf(0.25);
     assert!((a_star.teff_k - expected_teff).abs() < 1e-6);
-    // White dwarf of 0.6 Msun: 1 Earth radius × 0.6^(-1/3) (the issue's rule).
+    // White dwarf of 0.6 Msun: 1 Earth radius × 0.6^(-1/3) (rule of thumb: common
+    // practice, no source).
     let wd = profile(
         0.6,
         5.0,
@@ -331,8 +333,9 @@ fn rules_fidelity_profiles() {
 }
 
 #[test]
-fn the_issue_example_as_a_profile() {
-    // Issue 2: a 1.5 Msun star at 12 Gyr is a white dwarf of about 0.6 Msun, initial 1.5.
+fn a_1_5_msun_star_at_12_gyr_as_a_profile() {
+    // Worked example: a 1.5 Msun star at 12 Gyr is a white dwarf of about 0.6 Msun,
+    // initial 1.5 (Cummings et al. 2018, ApJ 866, 21, MIST fit: 0.609; derived).
     let p = profile(1.5, 12.0, KindChoice::Auto, Fidelity::Fitted);
     assert_eq!(p.kind, StarKind::WhiteDwarf);
     assert!((p.mass_msun - 0.6).abs() < 0.02);
@@ -349,7 +352,8 @@ fn the_issue_example_as_a_profile() {
 #[test]
 fn main_sequence_against_the_eker_2018_relations() {
     // Eker et al. 2018, MNRAS 479, 5491: empirical MLR from detached eclipsing binaries
-    // (stars.md §2c; coefficients from a code transcription, check values [derived]):
+    // (Tables 4/5, coefficients from a public code transcription; check values
+    // computed from them, derived):
     // L(0.5) = 0.033242, L(1.0) = 0.98401, L(1.5) = 5.9197, L(5) = 734.2,
     // L(10) = 9332.5; MRR R(0.5) = 0.424, R(1.0) = 0.992, R(1.5) = 1.779.
     // Field binaries of mixed age against our star at min(4.6 Gyr, 0.4 t_MS):

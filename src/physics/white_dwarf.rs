@@ -3,7 +3,8 @@
 //!
 //! # Source
 //! - Initial–final mass relation: Cummings et al. 2018, ApJ 866, 21, the
-//!   MIST-based three-piece fit (shared/science stars.md §8a, verified),
+//!   MIST-based three-piece fit (range verified against the abstract;
+//!   coefficients from two independent code transcriptions that agree),
 //!   valid for initial masses 0.83–7.20 Msun. Below 0.83 we extend the
 //!   first piece (such stars have not yet left the main sequence within
 //!   13.8 Gyr, so this only matters for explicit requests); from 7.20 to
@@ -11,12 +12,13 @@
 //!   last piece (1.317 Msun at 7.91).
 //! - Mass–radius: Nauenberg 1972, ApJ 175, 417:
 //!   `R = 0.0112 Rsun sqrt[(M/M3)^(-2/3) − (M/M3)^(2/3)]`, M3 = 5.816/μe²
-//!   = 1.454 Msun for μe = 2 (stars.md §8b).
+//!   = 1.454 Msun for μe = 2.
 //! - Cooling: Mestel (1952) law in its textbook form
 //!   `t_cool = 8.8e6 yr (A/12)^-1 (M/Msun)^(5/7) (μ/2)^(-2/7) (L/Lsun)^(-5/7)`
 //!   with A = 12 (carbon), μ = 2, i.e. `L = M (8.8e6 yr / t)^1.4` (constant
 //!   from memory, unverified). Checked against the Montreal DA cooling
-//!   grid at log g = 8 (stars.md §8c): within 0.15 dex from 0.6 to 9.4 Gyr;
+//!   grid at log g = 8 (Bergeron group, file of 2021-01-13; Holberg &
+//!   Bergeron 2006, Bédard et al. 2020): within 0.15 dex from 0.6 to 9.4 Gyr;
 //!   at 66 Myr (20 000 K) Mestel is 0.17 dex too bright because it ignores
 //!   neutrino losses, which dominate young hot white dwarfs.
 
@@ -108,13 +110,13 @@ mod tests {
 
     #[test]
     fn ifmr_check_values() {
-        // Cummings et al. 2018 MIST: stars.md §8a check values [derived], 1e-4 absolute.
+        // Cummings et al. 2018 MIST fit; check values computed from it (derived), 1e-4 absolute.
         for (m_i, m_f) in [(1.0, 0.569), (2.85, 0.717), (3.6, 0.8572), (7.2, 1.2414)] {
             assert!((final_mass_msun(m_i) - m_f).abs() < 1e-4, "{m_i}");
         }
-        // The example of issue 2: 1.5 Msun → about 0.6 Msun (0.609 by the fit).
+        // Worked example: 1.5 Msun → about 0.6 Msun (0.609 by the fit).
         assert!((final_mass_msun(1.5) - 0.609).abs() < 1e-9);
-        // Break-point jumps: 0 at 2.85, 1e-3 at 3.60 (stars.md §8a, derived).
+        // Break-point jumps: 0 at 2.85, 1e-3 at 3.60 (derived from the fit).
         let jump = |m: f64| final_mass_msun(m * (1.0 + 1e-12)) - final_mass_msun(m);
         assert!(jump(2.85).abs() < 1e-4);
         assert!((jump(3.6).abs() - 1.0e-3).abs() < 1e-4);
@@ -132,8 +134,8 @@ mod tests {
 
     #[test]
     fn nauenberg_radius_check_values() {
-        // Nauenberg 1972 with M3 = 1.454: stars.md §8b table [derived], within half a unit
-        // of the table's last digit (5e-6 Rsun).
+        // Nauenberg 1972 with M3 = 1.454; values computed from the formula (derived), within
+        // half a unit of the table's last digit (5e-6 Rsun).
         for (m, r) in [
             (0.2, 0.02091),
             (0.6, 0.01252),
@@ -169,7 +171,8 @@ mod tests {
     #[test]
     fn mestel_cooling_against_the_montreal_grid() {
         // Montreal DA grid, log g = 8.0 (≈ 0.60 Msun), file 2021-01-13 (Bergeron group;
-        // Bédard et al. 2020): stars.md §8c [verified]. (cooling age Gyr, log L, tol dex.)
+        // Holberg & Bergeron 2006, Bédard et al. 2020 sequences), verified against the grid
+        // file; log L = (4.74 − Mbol)/2.5. (cooling age Gyr, log L, tol dex.)
         let rows = [
             (0.0659, -1.612, 0.20), // 20 000 K: neutrino era, Mestel 0.17 dex bright (module docs).
             (0.633, -2.833, 0.15),  // 10 000 K
@@ -182,21 +185,24 @@ mod tests {
             let got = cooling_luminosity_lsun(0.6, t).log10();
             assert!((got - log_l).abs() < tol, "t {t}: {got} vs {log_l}");
         }
-        // Same law as transcribed in stars.md's "Mestel 8.8e6 form" column: 1e-3 dex.
+        // Same law computed by hand from the textbook Mestel form above (M = 0.6, A = 12;
+        // derived): 1e-3 dex.
         assert!((cooling_luminosity_lsun(0.6, 0.633).log10() + 2.822).abs() < 2e-3);
     }
 
     #[test]
     fn cooling_temperatures_follow() {
         // The Teff implied by Mestel + Nauenberg at 0.633 Gyr should be near the grid's
-        // 10 000 K (stars.md §8c); 0.15 dex in L is ≤ 9 % in Teff (L^(1/4)), allow 10 %.
+        // 10 000 K (Montreal DA grid, log g = 8); 0.15 dex in L is ≤ 9 % in Teff (L^(1/4)),
+        // allow 10 %.
         let t = teff_k(cooling_luminosity_lsun(0.6, 0.633), radius_rsun(0.6));
         assert!(rel(t, 10_000.0) < 0.10, "{t}");
     }
 
     #[test]
     fn rules_radius() {
-        // The issue's rule: 1 Earth radius at 1 Msun (IAU 2015 B3 nominal radii), M^(-1/3).
+        // Rule of thumb (common practice, no source): 1 Earth radius at 1 Msun (IAU 2015 B3
+        // nominal radii), M^(-1/3).
         assert!(rel(radius_rules_rsun(1.0), 6.3781e6 / 6.957e8) < 1e-12);
     }
 }

@@ -8,7 +8,7 @@
 //! - Chabrier 2003, PASP 115, 763, eq. 17 (single objects): lognormal in log m
 //!   below 1 Msun (m_c = 0.079, σ = 0.69), dN/dm ∝ m^-2.3 above, continuous at 1 Msun.
 //!
-//! (All as transcribed in shared/science stars.md §4 [verified].)
+//! (All as transcribed in shared/science stars.md §4 (verified).)
 //!
 //! Power laws are sampled by the exact inverse CDF (stars.md §4e); the
 //! Chabrier lognormal branch by rejection from a normal deviate.

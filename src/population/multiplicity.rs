@@ -8,7 +8,7 @@
 //!   al. 2019, AJ 157, 216 [verified: abstract]), so 21.2 % doubles and
 //!   5.6 % triples; γ = 0.4 (Duchêne & Kraus 2013, 0.1–0.5 Msun);
 //! - 0.6–1.5 Msun: single/double/triple/higher 56/33/8/3 % (Raghavan et
-//!   al. 2010, ApJS 190, 1 [verified]); γ = 0.3 (Duchêne & Kraus 2013);
+//!   al. 2010, ApJS 190, 1 (verified)); γ = 0.3 (Duchêne & Kraus 2013);
 //! - 1.5–16 Msun: multiplicity ≥ 50–60 %, companion fraction 100 %
 //!   (Duchêne & Kraus 2013): we use 40/30/20/10 % (MF 60 %, CF 1.0); γ = −0.5;
 //! - above 16 Msun: MF ≥ 80 %, CF 130 %: 20/40/30/10 % (MF 80 %, CF 1.3).

@@ -4,7 +4,7 @@
 //! # Model
 //! Star formation is constant over [t_min, t_max] (Binney, Dehnen &
 //! Bertelli 2000, MNRAS 318, 658: the local disk is 11.2 ± 0.75 Gyr old and
-//! its SFR very nearly constant; shared/science stars.md §9 [verified]).
+//! its SFR very nearly constant; shared/science stars.md §9 (verified)).
 //! Disk heating makes the vertical velocity dispersion grow with age,
 //! σ_W ∝ (t + t₁)^β with β = 0.375 and t₁ = 0.5 Gyr (Just & Jahreiß 2010,
 //! MNRAS 402, 461 [from memory: unverified]), and an age cohort with

@@ -4,7 +4,12 @@
 //! **Architecture invariant:** render never calls physics; it reads the
 //! catalogue's resolved columns.
 
+pub mod hr_diagram;
 pub mod output;
 pub mod overlay;
 pub mod paper;
+pub mod pdf;
+pub mod raster;
 pub mod scene;
+pub mod svg;
+pub mod text;

@@ -116,8 +116,8 @@ mod tests {
 
     #[test]
     fn pixel_sizes_at_300_dpi() {
-        // ISO 216 and US sizes in pixels at 300 dpi (shared/science
-        // light-and-maps.md §7, verified size tables; px computed there).
+        // ISO 216 and US (ANSI) sizes in pixels at 300 dpi: sizes in mm from
+        // ISO 216 and ANSI size tables (verified), px computed by hand (derived).
         assert_eq!(
             (mm_to_px(210.0, 300.0), mm_to_px(297.0, 300.0)),
             (2480, 3508)

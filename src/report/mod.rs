@@ -38,7 +38,8 @@ pub struct Summary {
     /// Median nearest-neighbour distance between systems, light years.
     pub nearest_neighbour_median_ly: f64,
     /// Poisson expectation of the mean, 0.55396 n^(-1/3) for system
-    /// density n (Chandrasekhar 1943; shared/science stars.md §5), light years.
+    /// density n (Chandrasekhar 1943, Rev. Mod. Phys. 15, 1, from memory;
+    /// coefficient Γ(4/3)(3/(4π))^(1/3) derived), light years.
     pub nearest_neighbour_poisson_mean_ly: f64,
 }
 
@@ -134,4 +135,59 @@ pub fn nearest_neighbour_distances(points: &[[f64; 3]]) -> Vec<f64> {
             res.get(1).map(|r| r.distance.sqrt()).unwrap_or(f64::NAN)
         })
         .collect()
+}
+/// The summary as readable text, one fact per line (what `summary`
+/// prints without `--json`).
+pub fn summary_text(cat: &Catalogue, s: &Summary) -> String {
+    use std::fmt::Write as _;
+    let mut out = String::new();
+    if let Some(t) = &cat.meta.title {
+        let _ = writeln!(out, "{t}");
+    }
+    let _ = writeln!(
+        out,
+        "{} objects: {} stars, {} brown dwarfs, in {} systems",
+        s.objects, s.stars, s.brown_dwarfs, s.systems
+    );
+    let _ = writeln!(
+        out,
+        "volume {:.4e} ly³, {:.5} stars per ly³",
+        s.volume_ly3, s.star_density_per_ly3
+    );
+    let _ = writeln!(
+        out,
+        "multiple systems {:.1} %, {:.3} companions per system",
+        100.0 * s.multiplicity_fraction,
+        s.companions_per_system
+    );
+    let _ = writeln!(out, "by kind:");
+    for (k, n) in &s.by_kind {
+        let _ = writeln!(
+            out,
+            "  {k:<18} {n:>10}  {:>6.2} %",
+            100.0 * *n as f64 / s.objects.max(1) as f64
+        );
+    }
+    let ms: u64 = s.main_sequence_by_class.values().sum();
+    let _ = writeln!(out, "main sequence by class:");
+    for (c, n) in &s.main_sequence_by_class {
+        let _ = writeln!(
+            out,
+            "  {c:<18} {n:>10}  {:>6.2} %",
+            100.0 * *n as f64 / ms.max(1) as f64
+        );
+    }
+    let _ = writeln!(
+        out,
+        "habitable-host candidates (simplified model, for fiction): {}",
+        s.habitable_hosts
+    );
+    let _ = writeln!(
+        out,
+        "nearest system: mean {:.2} ly, median {:.2} ly (random placement expects a mean of {:.2} ly)",
+        s.nearest_neighbour_mean_ly,
+        s.nearest_neighbour_median_ly,
+        s.nearest_neighbour_poisson_mean_ly
+    );
+    out
 }

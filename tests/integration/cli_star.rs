@@ -90,7 +90,7 @@ fn json_has_the_documented_fields() {
     ] {
         assert!(v.get(key).is_some(), "missing {key}");
     }
-    // The worked example: 1.5 Msun at 12 Gyr is a white dwarf of
+    // Worked example: 1.5 Msun at 12 Gyr is a white dwarf of
     // about 0.6 Msun (Cummings et al. 2018 IFMR, MIST: 0.080*1.5+0.489 = 0.609).
     assert_eq!(v["kind"], "white-dwarf");
     assert!((v["mass_msun"].as_f64().unwrap() - 0.609).abs() < 0.01);
@@ -101,7 +101,7 @@ fn json_has_the_documented_fields() {
     )))
     .unwrap();
     // r_s = 2953.250 m per Msun from the IAU 2015 B3 nominal GM_sun
-    // (shared/science stars.md §8f): 10 Msun -> 29.5325 km.
+    // (derived): 10 Msun -> 29.5325 km.
     assert!((bh["schwarzschild_km"].as_f64().unwrap() - 29.5325).abs() < 1e-3);
     assert!((bh["isco_km"].as_f64().unwrap() - 3.0 * 29.5325).abs() < 3e-3);
     assert!(bh["note"].as_str().unwrap().contains("non-rotating"));

@@ -1,6 +1,18 @@
 //! Integration tests, compiled as one binary: one module per area.
 
 mod census_hot_stars;
+mod cli_routes;
+mod cli_sky;
 mod cli_star;
+mod render_hr;
+mod render_output;
+mod render_raster;
+mod routes;
+mod sector_census;
+mod sector_cli;
+mod sector_determinism;
+mod sector_reader;
+mod sector_spec;
+mod sector_tiling;
 mod tidy;
 mod util;

@@ -47,3 +47,31 @@ pub fn assert_user_error(out: &Output, needle: &str) {
     );
     assert!(!err.contains("panicked"), "no panic: {err}");
 }
+
+/// Runs the starloom binary with `args` in folder `dir`, with extra
+/// environment variables `envs`.
+pub fn starloom_env(dir: &Path, args: &[&str], envs: &[(&str, &str)]) -> Output {
+    Command::new(env!("CARGO_BIN_EXE_starloom"))
+        .args(args)
+        .envs(envs.iter().copied())
+        .current_dir(dir)
+        .output()
+        .expect("the starloom binary runs")
+}
+
+/// Runs the binary and asserts it succeeded; returns its output.
+pub fn starloom_ok(dir: &Path, args: &[&str]) -> Output {
+    let out = starloom(dir, args);
+    assert_eq!(
+        out.status.code(),
+        Some(0),
+        "starloom {args:?} failed: {}",
+        stderr(&out)
+    );
+    out
+}
+
+/// The bytes of a file in `dir`.
+pub fn read_bytes(dir: &Path, name: &str) -> Vec<u8> {
+    std::fs::read(dir.join(name)).unwrap_or_else(|e| panic!("cannot read {name}: {e}"))
+}

@@ -1,0 +1,715 @@
+//! Rasterising a [`Scene`] with tiny-skia: anti-aliased, at a chosen
+//! resolution, in parallel horizontal bands.
+//!
+//! # Guarantees
+//! The page is cut into bands of [`BAND_ROWS`] pixel rows, a constant
+//! that does not depend on the thread count; each band is drawn on its
+//! own, every item in scene order, so the pixels are the same whatever
+//! `RAYON_NUM_THREADS` is.
+//!
+//! # Stars
+//! [`Item::Stars`] is the fast path for big catalogues: stars up to
+//! [`SPRITE_MAX_RADIUS_PX`] are stamped from coverage sprites drawn once
+//! per radius step (1/8 px) and sub-pixel phase (1/4 px), so a star lands
+//! within 1/8 px of its true centre; each stamp is blended with the
+//! star's own colour. Larger stars are drawn as vector discs.
+//!
+//! # Allocations
+//! One RGBA pixmap of width × height × 4 bytes; pages needing more than
+//! [`MAX_RASTER_BYTES`] are refused before allocating.
+
+use crate::error::{Error, Result};
+use crate::render::paper::mm_to_px;
+use crate::render::scene::{Anchor, Item, Rgba, Scene, Shape, Stroke};
+use crate::render::text;
+use rayon::prelude::*;
+use tiny_skia::{
+    FillRule, LineCap, LineJoin, Paint, Path, PathBuilder, Pixmap, PixmapMut, Transform,
+};
+
+/// Pixel rows per band (fixed, so output does not depend on threads).
+pub const BAND_ROWS: u32 = 128;
+
+/// Largest raster accepted, bytes of RGBA pixels (about 1.5 GB).
+pub const MAX_RASTER_BYTES: u64 = 1_500_000_000;
+
+/// Stars with a radius above this many pixels are drawn as vector discs.
+pub const SPRITE_MAX_RADIUS_PX: f32 = 6.0;
+
+/// Radius steps per pixel for star sprites.
+const RADIUS_STEPS_PER_PX: f32 = 8.0;
+/// Sub-pixel phases per pixel and axis for star sprites.
+const PHASES: usize = 4;
+
+/// Size of the raster of `scene` at `dpi`, pixels (width, height).
+pub fn raster_size_px(scene: &Scene, dpi: f32) -> (u32, u32) {
+    (
+        mm_to_px(scene.width_mm, dpi).max(1),
+        mm_to_px(scene.height_mm, dpi).max(1),
+    )
+}
+
+/// Checks that a raster of `width` × `height` pixels fits in memory.
+pub fn check_raster_size(width: u32, height: u32, dpi: f32) -> Result<()> {
+    let bytes = u64::from(width) * u64::from(height) * 4;
+    if bytes > MAX_RASTER_BYTES {
+        return Err(Error::TooLarge(format!(
+            "a {width} × {height} pixel sheet at {dpi} dpi needs {:.1} GB of memory, more than the {:.1} GB allowed; lower --dpi, use a smaller paper or tile the map",
+            bytes as f64 / 1e9,
+            MAX_RASTER_BYTES as f64 / 1e9
+        )));
+    }
+    Ok(())
+}
+
+/// Draws `scene` at `dpi` dots per inch into a new premultiplied RGBA
+/// pixmap. Refuses a page that would not fit in memory.
+pub fn rasterise(scene: &Scene, dpi: f32) -> Result<Pixmap> {
+    let (w, h) = raster_size_px(scene, dpi);
+    check_raster_size(w, h, dpi)?;
+    let mut pixmap = Pixmap::new(w, h).ok_or_else(|| {
+        Error::TooLarge(format!(
+            "a {w} × {h} pixel sheet cannot be allocated; lower --dpi"
+        ))
+    })?;
+    let prepared = Prepared::new(scene, dpi, h);
+    let band_bytes = (BAND_ROWS * w * 4) as usize;
+    pixmap
+        .data_mut()
+        .par_chunks_mut(band_bytes)
+        .enumerate()
+        .for_each(|(band, bytes)| {
+            let rows = (bytes.len() / (w as usize * 4)) as u32;
+            let mut pm = PixmapMut::from_bytes(bytes, w, rows).expect("band size");
+            prepared.draw_band(&mut pm, band, band as u32 * BAND_ROWS);
+        });
+    Ok(pixmap)
+}
+
+/// A page with its per-item bounds and star bins, ready to draw by band.
+struct Prepared<'a> {
+    scene: &'a Scene,
+    px_per_mm: f32,
+    /// Each item's vertical extent in pixels (top, bottom), for culling.
+    extents: Vec<(f32, f32)>,
+    /// For each `Item::Stars`, the prepared stars.
+    stars: Vec<Option<StarLayer>>,
+}
+
+/// Stars of one `Item::Stars`, converted to pixels and binned by band.
+struct StarLayer {
+    /// Per star: centre in pixels and radius in pixels.
+    px: Vec<[f32; 3]>,
+    /// Star indices per band, in star order.
+    bins: Vec<Vec<u32>>,
+    /// Sprites indexed by `sprite_index`.
+    sprites: Vec<Option<Sprite>>,
+    outline_px: f32,
+}
+
+/// Fill and outline coverage of one star sprite.
+struct Sprite {
+    size: usize,
+    half: i32,
+    fill: Vec<u8>,
+    stroke: Vec<u8>,
+}
+
+fn radius_step(r_px: f32) -> usize {
+    ((r_px * RADIUS_STEPS_PER_PX).round() as usize).max(1)
+}
+
+fn phase(f: f32) -> usize {
+    ((f * PHASES as f32) as usize).min(PHASES - 1)
+}
+
+fn sprite_index(step: usize, px: usize, py: usize) -> usize {
+    (step * PHASES + py) * PHASES + px
+}
+
+fn make_sprite(step: usize, px: usize, py: usize, outline_px: f32) -> Sprite {
+    let r = step as f32 / RADIUS_STEPS_PER_PX;
+    let half = (r + outline_px * 0.5 + 1.0).ceil() as i32;
+    let size = (2 * half + 1) as usize;
+    let cx = half as f32 + (px as f32 + 0.5) / PHASES as f32;
+    let cy = half as f32 + (py as f32 + 0.5) / PHASES as f32;
+    let circle = PathBuilder::from_circle(cx, cy, r).expect("positive radius");
+    let mut paint = Paint::default();
+    paint.set_color_rgba8(255, 255, 255, 255);
+    paint.anti_alias = true;
+    let mut pm = Pixmap::new(size as u32, size as u32).expect("sprite size");
+    pm.fill_path(
+        &circle,
+        &paint,
+        FillRule::Winding,
+        Transform::identity(),
+        None,
+    );
+    let fill = pm.pixels().iter().map(|p| p.alpha()).collect();
+    let stroke = if outline_px > 0.0 {
+        let mut pm = Pixmap::new(size as u32, size as u32).expect("sprite size");
+        let st = tiny_skia::Stroke {
+            width: outline_px,
+            ..Default::default()
+        };
+        pm.stroke_path(&circle, &paint, &st, Transform::identity(), None);
+        pm.pixels().iter().map(|p| p.alpha()).collect()
+    } else {
+        Vec::new()
+    };
+    Sprite {
+        size,
+        half,
+        fill,
+        stroke,
+    }
+}
+
+impl<'a> Prepared<'a> {
+    fn new(scene: &'a Scene, dpi: f32, height_px: u32) -> Self {
+        let px_per_mm = dpi / 25.4;
+        let bands = height_px.div_ceil(BAND_ROWS) as usize;
+        let extents = scene
+            .items
+            .iter()
+            .map(|it| {
+                let (a, b) = item_extent_mm(it);
+                (a * px_per_mm - 2.0, b * px_per_mm + 2.0)
+            })
+            .collect();
+        let stars = scene
+            .items
+            .iter()
+            .map(|it| match it {
+                Item::Stars {
+                    centres_mm,
+                    radii_mm,
+                    outline,
+                    ..
+                } => Some(StarLayer::new(
+                    centres_mm,
+                    radii_mm,
+                    outline.as_ref(),
+                    px_per_mm,
+                    bands,
+                )),
+                _ => None,
+            })
+            .collect();
+        Prepared {
+            scene,
+            px_per_mm,
+            extents,
+            stars,
+        }
+    }
+
+    fn draw_band(&self, pm: &mut PixmapMut<'_>, band: usize, y0: u32) {
+        let bg = self.scene.background;
+        pm.fill(tiny_skia::Color::from_rgba8(bg.r, bg.g, bg.b, bg.a));
+        let top = y0 as f32;
+        let bottom = (y0 + pm.height()) as f32;
+        let s = self.px_per_mm;
+        let tf = Transform::from_row(s, 0.0, 0.0, s, 0.0, -top);
+        for (i, item) in self.scene.items.iter().enumerate() {
+            let (a, b) = self.extents[i];
+            if b < top || a > bottom {
+                continue;
+            }
+            match item {
+                Item::Stars { fills, outline, .. } => {
+                    let layer = self.stars[i].as_ref().expect("prepared stars");
+                    layer.draw(pm, band, y0, fills, outline.as_ref(), tf, s);
+                }
+                Item::Marker {
+                    centre_mm,
+                    radius_mm,
+                    shape,
+                    fill,
+                    stroke,
+                } => draw_marker(
+                    pm,
+                    tf,
+                    *centre_mm,
+                    *radius_mm,
+                    *shape,
+                    *fill,
+                    stroke.as_ref(),
+                ),
+                Item::Line {
+                    points_mm,
+                    closed,
+                    stroke,
+                } => {
+                    if let Some(path) = polyline(points_mm, *closed) {
+                        stroke_path(pm, &path, stroke, tf);
+                    }
+                }
+                Item::Polygon {
+                    points_mm,
+                    fill,
+                    stroke,
+                } => {
+                    if let Some(path) = polyline(points_mm, true) {
+                        pm.fill_path(&path, &paint(*fill), FillRule::Winding, tf, None);
+                        if let Some(st) = stroke {
+                            stroke_path(pm, &path, st, tf);
+                        }
+                    }
+                }
+                Item::Text {
+                    position_mm,
+                    text,
+                    size_pt,
+                    color,
+                    anchor,
+                    bold,
+                    rotation_deg,
+                } => draw_text(
+                    pm,
+                    y0,
+                    s,
+                    TextSpec {
+                        position_mm: *position_mm,
+                        text,
+                        size_pt: *size_pt,
+                        color: *color,
+                        anchor: *anchor,
+                        bold: *bold,
+                        rotation_deg: *rotation_deg,
+                    },
+                ),
+            }
+        }
+    }
+}
+
+impl StarLayer {
+    fn new(
+        centres_mm: &[[f32; 2]],
+        radii_mm: &[f32],
+        outline: Option<&Stroke>,
+        px_per_mm: f32,
+        bands: usize,
+    ) -> Self {
+        let outline_px = outline.map_or(0.0, |o| o.width_mm * px_per_mm);
+        let px: Vec<[f32; 3]> = centres_mm
+            .par_iter()
+            .zip(radii_mm.par_iter())
+            .map(|(c, r)| [c[0] * px_per_mm, c[1] * px_per_mm, r * px_per_mm])
+            .collect();
+        let mut bins = vec![Vec::new(); bands];
+        let mut used = Vec::new();
+        for (i, p) in px.iter().enumerate() {
+            if !(p[0].is_finite() && p[1].is_finite() && p[2].is_finite()) || p[2] <= 0.0 {
+                continue;
+            }
+            let reach = p[2] + outline_px * 0.5 + 2.0;
+            let lo = ((p[1] - reach).max(0.0) / BAND_ROWS as f32) as usize;
+            let hi = ((p[1] + reach).max(0.0) / BAND_ROWS as f32) as usize;
+            if lo >= bands {
+                continue;
+            }
+            for bin in &mut bins[lo..=hi.min(bands - 1)] {
+                bin.push(i as u32);
+            }
+            if p[2] <= SPRITE_MAX_RADIUS_PX {
+                let (fx, fy) = (p[0] - p[0].floor(), p[1] - p[1].floor());
+                let k = sprite_index(radius_step(p[2]), phase(fx), phase(fy));
+                if k >= used.len() {
+                    used.resize(k + 1, false);
+                }
+                used[k] = true;
+            }
+        }
+        let sprites = used
+            .par_iter()
+            .enumerate()
+            .map(|(k, &u)| {
+                u.then(|| {
+                    let px = k % PHASES;
+                    let py = (k / PHASES) % PHASES;
+                    let step = k / (PHASES * PHASES);
+                    make_sprite(step, px, py, outline_px)
+                })
+            })
+            .collect();
+        StarLayer {
+            px,
+            bins,
+            sprites,
+            outline_px,
+        }
+    }
+
+    #[allow(clippy::too_many_arguments)]
+    fn draw(
+        &self,
+        pm: &mut PixmapMut<'_>,
+        band: usize,
+        y0: u32,
+        fills: &[Rgba],
+        outline: Option<&Stroke>,
+        tf: Transform,
+        px_per_mm: f32,
+    ) {
+        let Some(bin) = self.bins.get(band) else {
+            return;
+        };
+        let w = pm.width() as i32;
+        let h = pm.height() as i32;
+        let data = pm.data_mut();
+        for &i in bin {
+            let i = i as usize;
+            let [x, y, r] = self.px[i];
+            let color = fills.get(i).copied().unwrap_or(Rgba::rgb(255, 255, 255));
+            if r > SPRITE_MAX_RADIUS_PX {
+                // Vector disc, on the same pixmap bytes.
+                let mut pmv = PixmapMut::from_bytes(data, w as u32, h as u32).expect("band");
+                let mm = [x / px_per_mm, y / px_per_mm];
+                draw_marker(
+                    &mut pmv,
+                    tf,
+                    mm,
+                    r / px_per_mm,
+                    Shape::Disc,
+                    Some(color),
+                    outline,
+                );
+                continue;
+            }
+            let (ix, iy) = (x.floor(), y.floor());
+            let k = sprite_index(radius_step(r), phase(x - ix), phase(y - iy));
+            let Some(sp) = self.sprites[k].as_ref() else {
+                continue;
+            };
+            let ox = ix as i32 - sp.half;
+            let oy = iy as i32 - sp.half - y0 as i32;
+            stamp(data, w, h, ox, oy, sp.size, &sp.fill, color);
+            if self.outline_px > 0.0
+                && let Some(o) = outline
+            {
+                stamp(data, w, h, ox, oy, sp.size, &sp.stroke, o.color);
+            }
+        }
+    }
+}
+
+#[inline]
+fn div255(x: u32) -> u32 {
+    (x + 128 + ((x + 128) >> 8)) >> 8
+}
+
+/// Blends `color` through a coverage mask of `size` × `size` pixels with
+/// its top-left corner at (`ox`, `oy`), source-over, premultiplied.
+#[allow(clippy::too_many_arguments)]
+fn stamp(data: &mut [u8], w: i32, h: i32, ox: i32, oy: i32, size: usize, cov: &[u8], color: Rgba) {
+    blend_mask(data, w, h, ox, oy, size, size, cov, color);
+}
+
+/// Source-over blend of a straight-alpha colour through a coverage mask.
+#[allow(clippy::too_many_arguments)]
+fn blend_mask(
+    data: &mut [u8],
+    w: i32,
+    h: i32,
+    ox: i32,
+    oy: i32,
+    mw: usize,
+    mh: usize,
+    cov: &[u8],
+    color: Rgba,
+) {
+    let x0 = ox.max(0);
+    let x1 = (ox + mw as i32).min(w);
+    let y0 = oy.max(0);
+    let y1 = (oy + mh as i32).min(h);
+    if x0 >= x1 || y0 >= y1 || color.a == 0 {
+        return;
+    }
+    let (r, g, b, a) = (
+        u32::from(color.r),
+        u32::from(color.g),
+        u32::from(color.b),
+        u32::from(color.a),
+    );
+    for y in y0..y1 {
+        let mrow = ((y - oy) as usize) * mw;
+        let drow = (y * w) as usize * 4;
+        for x in x0..x1 {
+            let c = u32::from(cov[mrow + (x - ox) as usize]);
+            if c == 0 {
+                continue;
+            }
+            let sa = div255(a * c);
+            let inv = 255 - sa;
+            let d = &mut data[drow + x as usize * 4..drow + x as usize * 4 + 4];
+            d[0] = (div255(r * sa) + div255(u32::from(d[0]) * inv)) as u8;
+            d[1] = (div255(g * sa) + div255(u32::from(d[1]) * inv)) as u8;
+            d[2] = (div255(b * sa) + div255(u32::from(d[2]) * inv)) as u8;
+            d[3] = (sa + div255(u32::from(d[3]) * inv)) as u8;
+        }
+    }
+}
+
+fn paint(c: Rgba) -> Paint<'static> {
+    let mut p = Paint::default();
+    p.set_color_rgba8(c.r, c.g, c.b, c.a);
+    p.anti_alias = true;
+    p
+}
+
+fn stroke_path(pm: &mut PixmapMut<'_>, path: &Path, st: &Stroke, tf: Transform) {
+    if st.width_mm <= 0.0 || st.color.a == 0 {
+        return;
+    }
+    let dash = st
+        .dash_mm
+        .and_then(|(on, off)| tiny_skia::StrokeDash::new(vec![on, off], 0.0));
+    let ts = tiny_skia::Stroke {
+        width: st.width_mm,
+        line_cap: LineCap::Butt,
+        line_join: LineJoin::Round,
+        dash,
+        ..Default::default()
+    };
+    pm.stroke_path(path, &paint(st.color), &ts, tf, None);
+}
+
+fn polyline(points: &[[f32; 2]], closed: bool) -> Option<Path> {
+    let mut pb = PathBuilder::new();
+    let mut it = points.iter();
+    let first = it.next()?;
+    pb.move_to(first[0], first[1]);
+    for p in it {
+        pb.line_to(p[0], p[1]);
+    }
+    if closed {
+        pb.close();
+    }
+    pb.finish()
+}
+
+/// The outline of a polygonal marker shape (square, diamond, triangle,
+/// cross) around `centre` for a marker of radius `r`, mm; `None` for the
+/// round shapes (disc, ring).
+///
+/// Square, diamond and triangle have the area of the disc of radius `r`,
+/// so symbol size reads the same whatever the shape; the cross reaches
+/// 1.3 r with a waist of 0.35 r.
+pub fn marker_polygon(shape: Shape, centre: [f32; 2], r: f32) -> Option<Vec<[f32; 2]>> {
+    let [cx, cy] = centre;
+    let pts = match shape {
+        Shape::Disc | Shape::Ring => return None,
+        Shape::Square => {
+            let h = r * std::f32::consts::PI.sqrt() / 2.0;
+            vec![
+                [cx - h, cy - h],
+                [cx + h, cy - h],
+                [cx + h, cy + h],
+                [cx - h, cy + h],
+            ]
+        }
+        Shape::Diamond => {
+            let d = r * std::f32::consts::PI.sqrt() / std::f32::consts::SQRT_2;
+            vec![[cx, cy - d], [cx + d, cy], [cx, cy + d], [cx - d, cy]]
+        }
+        Shape::Triangle => {
+            // Equilateral: area (3√3/4) R² = π r².
+            let big = r * (4.0 * std::f32::consts::PI / (3.0 * 3f32.sqrt())).sqrt();
+            let s3 = 3f32.sqrt() / 2.0;
+            vec![
+                [cx, cy - big],
+                [cx + big * s3, cy + big * 0.5],
+                [cx - big * s3, cy + big * 0.5],
+            ]
+        }
+        Shape::Cross => {
+            let (outer, waist) = (1.3 * r, 0.35 * r);
+            (0..8)
+                .map(|k| {
+                    let ang = k as f32 * std::f32::consts::FRAC_PI_4;
+                    let rad = if k % 2 == 0 { outer } else { waist };
+                    [cx + rad * ang.sin(), cy - rad * ang.cos()]
+                })
+                .collect()
+        }
+    };
+    Some(pts)
+}
+
+/// Inner radius of a ring marker as a share of its outer radius.
+pub const RING_INNER: f32 = 0.55;
+
+fn draw_marker(
+    pm: &mut PixmapMut<'_>,
+    tf: Transform,
+    centre: [f32; 2],
+    r: f32,
+    shape: Shape,
+    fill: Option<Rgba>,
+    stroke: Option<&Stroke>,
+) {
+    if !(r > 0.0) {
+        return;
+    }
+    let [cx, cy] = centre;
+    let path = match shape {
+        Shape::Disc => PathBuilder::from_circle(cx, cy, r),
+        Shape::Ring => {
+            let mut pb = PathBuilder::new();
+            pb.push_circle(cx, cy, r);
+            pb.push_circle(cx, cy, r * RING_INNER);
+            pb.finish()
+        }
+        _ => polyline(&marker_polygon(shape, centre, r).unwrap_or_default(), true),
+    };
+    let Some(path) = path else {
+        return;
+    };
+    if let Some(f) = fill {
+        pm.fill_path(&path, &paint(f), FillRule::EvenOdd, tf, None);
+    }
+    if let Some(st) = stroke {
+        stroke_path(pm, &path, st, tf);
+    }
+}
+
+struct TextSpec<'t> {
+    position_mm: [f32; 2],
+    text: &'t str,
+    size_pt: f32,
+    color: Rgba,
+    anchor: Anchor,
+    bold: bool,
+    rotation_deg: f32,
+}
+
+/// Offset of the line start from the anchor, ems.
+pub(crate) fn anchor_shift_em(anchor: Anchor, width_em: f32) -> f32 {
+    match anchor {
+        Anchor::Start => 0.0,
+        Anchor::Middle => -0.5 * width_em,
+        Anchor::End => -width_em,
+    }
+}
+
+fn draw_text(pm: &mut PixmapMut<'_>, y0: u32, px_per_mm: f32, t: TextSpec<'_>) {
+    if t.text.is_empty() || !(t.size_pt > 0.0) || t.color.a == 0 {
+        return;
+    }
+    let (glyphs, width_em) = text::layout(t.text, t.bold);
+    let em_px = t.size_pt * text::MM_PER_PT * px_per_mm;
+    let shift = anchor_shift_em(t.anchor, width_em);
+    let ax = t.position_mm[0] * px_per_mm;
+    let ay = t.position_mm[1] * px_per_mm - y0 as f32;
+    if t.rotation_deg.abs() < 1e-3 {
+        let (w, h) = (pm.width() as i32, pm.height() as i32);
+        let data = pm.data_mut();
+        let base = ay.round() as i32;
+        for g in &glyphs {
+            let bm = text::glyph_bitmap(g.glyph_id, t.bold, em_px);
+            if bm.width == 0 || bm.height == 0 {
+                continue;
+            }
+            let pen = (ax + (shift + g.x_em) * em_px).round() as i32;
+            blend_mask(
+                data,
+                w,
+                h,
+                pen + bm.left_px,
+                base - bm.top_px,
+                bm.width,
+                bm.height,
+                &bm.coverage,
+                t.color,
+            );
+        }
+        return;
+    }
+    // Rotated: glyph outlines, counter-clockwise on the page (y down).
+    let mut pb = PathBuilder::new();
+    for g in &glyphs {
+        let dx = shift + g.x_em;
+        for seg in text::glyph_outline(g.glyph_id, t.bold).iter() {
+            let p = |q: [f32; 2]| (q[0] + dx, -q[1]);
+            match *seg {
+                text::Segment::MoveTo(a) => {
+                    let (x, y) = p(a);
+                    pb.move_to(x, y)
+                }
+                text::Segment::LineTo(a) => {
+                    let (x, y) = p(a);
+                    pb.line_to(x, y)
+                }
+                text::Segment::QuadTo(c, a) => {
+                    let ((x1, y1), (x, y)) = (p(c), p(a));
+                    pb.quad_to(x1, y1, x, y)
+                }
+                text::Segment::CubicTo(c1, c2, a) => {
+                    let ((x1, y1), (x2, y2), (x, y)) = (p(c1), p(c2), p(a));
+                    pb.cubic_to(x1, y1, x2, y2, x, y)
+                }
+                text::Segment::Close => pb.close(),
+            }
+        }
+    }
+    let Some(path) = pb.finish() else {
+        return;
+    };
+    let tf = Transform::from_translate(ax, ay)
+        .pre_rotate(-t.rotation_deg)
+        .pre_scale(em_px, em_px);
+    pm.fill_path(&path, &paint(t.color), FillRule::Winding, tf, None);
+}
+
+/// Vertical extent of an item on the page, mm (top, bottom), generous.
+fn item_extent_mm(item: &Item) -> (f32, f32) {
+    let span = |pts: &[[f32; 2]], pad: f32| {
+        let (mut a, mut b) = (f32::INFINITY, f32::NEG_INFINITY);
+        for p in pts {
+            a = a.min(p[1]);
+            b = b.max(p[1]);
+        }
+        (a - pad, b + pad)
+    };
+    let sw = |s: Option<&Stroke>| s.map_or(0.0, |s| s.width_mm);
+    match item {
+        Item::Marker {
+            centre_mm,
+            radius_mm,
+            stroke,
+            ..
+        } => {
+            let pad = 1.4 * radius_mm + sw(stroke.as_ref());
+            (centre_mm[1] - pad, centre_mm[1] + pad)
+        }
+        // Stars are binned one by one.
+        Item::Stars { .. } => (f32::NEG_INFINITY, f32::INFINITY),
+        Item::Line {
+            points_mm, stroke, ..
+        } => span(points_mm, stroke.width_mm),
+        Item::Polygon {
+            points_mm, stroke, ..
+        } => span(points_mm, sw(stroke.as_ref())),
+        Item::Text {
+            position_mm,
+            text,
+            size_pt,
+            bold,
+            rotation_deg,
+            ..
+        } => {
+            let size_mm = size_pt * text::MM_PER_PT;
+            if rotation_deg.abs() < 1e-3 {
+                (
+                    position_mm[1] - 1.3 * size_mm,
+                    position_mm[1] + 0.5 * size_mm,
+                )
+            } else {
+                let reach = text::text_width_mm(text, *size_pt, *bold) + 1.5 * size_mm;
+                (position_mm[1] - reach, position_mm[1] + reach)
+            }
+        }
+    }
+}

@@ -1,0 +1,230 @@
+//! The catalogue reader: files starloom wrote, and a user's own CSV with
+//! positions in ly, pc or on the sky; errors that name line and column.
+
+use crate::util::{assert_user_error, starloom, starloom_ok, work_dir};
+use starloom::catalogue::read_catalogue;
+
+/// Two floats equal, NaN equal to NaN (missing values).
+fn same(a: f64, b: f64) -> bool {
+    a == b || (a.is_nan() && b.is_nan())
+}
+
+#[test]
+fn sector_reads_back_csv_and_jsonl_it_wrote() {
+    let dir = work_dir("sector-reader-roundtrip");
+    for out in ["cat.csv", "cat.jsonl"] {
+        starloom_ok(
+            &dir,
+            &[
+                "populate", "--box", "70,70,70", "--seed", "99", "--home", "--out", out,
+            ],
+        );
+    }
+    let csv = read_catalogue(&dir.join("cat.csv")).unwrap();
+    let json = read_catalogue(&dir.join("cat.jsonl")).unwrap();
+    // 0.0025 × 70³ ≈ 860 stars plus brown dwarfs.
+    assert!(csv.len() > 500, "{} rows", csv.len());
+    assert_eq!(csv.len(), json.len());
+    assert_eq!(csv.meta.seed, Some(99), "seed from the sidecar");
+    let floats = |c: &starloom::Catalogue| {
+        [
+            c.x_ly.clone(),
+            c.y_ly.clone(),
+            c.z_ly.clone(),
+            c.mass_msun.clone(),
+            c.initial_mass_msun.clone(),
+            c.radius_rsun.clone(),
+            c.luminosity_lsun.clone(),
+            c.teff_k.clone(),
+            c.age_gyr.clone(),
+            c.lifetime_gyr.clone(),
+            c.hz_inner_au.clone(),
+            c.hz_outer_au.clone(),
+            c.abs_mag_v.clone(),
+            c.separation_au.clone(),
+            c.period_days.clone(),
+        ]
+    };
+    let (fc, fj) = (floats(&csv), floats(&json));
+    for i in 0..csv.len() {
+        assert_eq!(csv.id[i], json.id[i], "row {i}");
+        assert_eq!(csv.system[i], json.system[i], "row {i}");
+        assert_eq!(csv.name[i], json.name[i], "row {i}");
+        assert_eq!(csv.kind[i], json.kind[i], "row {i}");
+        assert_eq!(csv.class[i].as_str(), json.class[i].as_str(), "row {i}");
+        assert_eq!(csv.color_rgb[i], json.color_rgb[i], "row {i}");
+        assert_eq!(csv.habitable_host[i], json.habitable_host[i], "row {i}");
+        assert_eq!(csv.origin[i], json.origin[i], "row {i}");
+        for (col, (a, b)) in fc.iter().zip(&fj).enumerate() {
+            assert!(
+                same(a[i], b[i]),
+                "row {i} float column {col}: {} vs {}",
+                a[i],
+                b[i]
+            );
+        }
+    }
+    // The file holds what the library makes in memory: same ids, names,
+    // kinds, in the same order; positions to the written 0.001 ly.
+    let spec = starloom::spec::SectorSpec {
+        home: true,
+        ..starloom::spec::SectorSpec::new(
+            99,
+            starloom::spec::Shape::Box { size_ly: [70.0; 3] },
+            [0.0; 3],
+        )
+    };
+    let mem = starloom::sampler::generate(&spec, &|_, _| {}).unwrap();
+    assert_eq!(mem.len(), csv.len());
+    for i in 0..mem.len() {
+        assert_eq!(
+            (mem.id[i], mem.system[i]),
+            (csv.id[i], csv.system[i]),
+            "row {i}"
+        );
+        assert_eq!(mem.name[i], csv.name[i], "row {i}");
+        assert_eq!(mem.kind[i], csv.kind[i], "row {i}");
+        for (a, b) in mem.position_ly(i).iter().zip(csv.position_ly(i)) {
+            assert!((a - b).abs() <= 0.0005 + 1e-9, "row {i}: {a} vs {b}");
+        }
+        // Five significant digits are written.
+        let (m, c) = (mem.mass_msun[i], csv.mass_msun[i]);
+        assert!(
+            (m - c).abs() <= 5e-5 * m.abs() + 1e-12,
+            "row {i} mass {m} vs {c}"
+        );
+    }
+}
+
+#[test]
+fn sector_reads_a_users_own_csv_in_ly_pc_and_sky_coordinates() {
+    let dir = work_dir("sector-reader-user");
+    std::fs::write(dir.join("ly.csv"), "x_ly,y_ly,z_ly\n1.5,-2,3\n-4,5.25,0\n").unwrap();
+    let ly = read_catalogue(&dir.join("ly.csv")).unwrap();
+    assert_eq!(ly.len(), 2);
+    assert_eq!(ly.position_ly(0), [1.5, -2.0, 3.0]);
+    assert_eq!(ly.position_ly(1), [-4.0, 5.25, 0.0]);
+    // Each row its own system, distinct ids.
+    assert_eq!(ly.system_ranges().len(), 2);
+    assert_ne!(ly.id[0], ly.id[1]);
+
+    // 1 pc = 3.261 563 777 ly (IAU 2015 Resolution B2: pc = 648000/π au;
+    // IAU 2012 B2 au; ly = c × Julian year).
+    std::fs::write(
+        dir.join("pc.csv"),
+        "name,x_pc,y_pc,z_pc,mass_msun\nOne,1,0,-2,1.0\nTwo,0,10,0,0.5\n",
+    )
+    .unwrap();
+    let pc = read_catalogue(&dir.join("pc.csv")).unwrap();
+    let ly_per_pc = 3.261_563_777;
+    let p0 = pc.position_ly(0);
+    assert!((p0[0] - ly_per_pc).abs() < 1e-8 && (p0[2] + 2.0 * ly_per_pc).abs() < 1e-8);
+    assert!((pc.position_ly(1)[1] - 10.0 * ly_per_pc).abs() < 1e-7);
+    assert_eq!(pc.name[0], "One");
+    // A mass alone gives the whole profile (a 1 Msun star is a G dwarf).
+    assert!(
+        pc.teff_k[0] > 5000.0 && pc.teff_k[0] < 6500.0,
+        "{}",
+        pc.teff_k[0]
+    );
+
+    // The galactic frame in ICRS (defined in the Hipparcos Catalogue 1997,
+    // ESA SP-1200, Vol. 1, §1.5.3): the directions l = b = 0, the north
+    // galactic pole and l = 90°, b = 0 computed with astropy 8.0.2
+    // (`SkyCoord(l, b, frame="galactic").icrs`): RA 266.404988°, Dec
+    // −28.936178°; RA 192.859478°, Dec 27.128252°; RA 318.004382°, Dec
+    // 48.329637°. They must map to +x, +z and +y.
+    std::fs::write(
+        dir.join("sky.csv"),
+        "name,ra_deg,dec_deg,distance_pc\n\
+         centre,266.404988,-28.936178,10\n\
+         pole,192.859478,27.128252,2\n\
+         l90,318.004382,48.329637,1\n",
+    )
+    .unwrap();
+    let sky = read_catalogue(&dir.join("sky.csv")).unwrap();
+    let check = |i: usize, axis: usize, d_ly: f64| {
+        let p = sky.position_ly(i);
+        let r = (p[0] * p[0] + p[1] * p[1] + p[2] * p[2]).sqrt();
+        assert!((r - d_ly).abs() < 1e-6 * d_ly, "row {i}: distance {r}");
+        // Inputs are given to 1e-6°, ~2e-8 rad: the direction must agree
+        // to 1.4e-6 rad (angle ≈ sqrt(2(1 − cos)), 1 − cos < 1e-12).
+        let cos = p[axis] / r;
+        assert!(
+            (1.0 - cos) < 1e-12,
+            "row {i}: {p:?} is not along axis {axis}"
+        );
+    };
+    check(0, 0, 10.0 * ly_per_pc);
+    check(1, 2, 2.0 * ly_per_pc);
+    check(2, 1, ly_per_pc);
+    // In light years as well.
+    std::fs::write(
+        dir.join("sky_ly.csv"),
+        "ra_deg,dec_deg,distance_ly\n266.404988,-28.936178,4.0\n",
+    )
+    .unwrap();
+    let p = read_catalogue(&dir.join("sky_ly.csv"))
+        .unwrap()
+        .position_ly(0);
+    assert!(
+        (p[0] - 4.0).abs() < 1e-6 && p[1].abs() < 1e-4 && p[2].abs() < 1e-4,
+        "{p:?}"
+    );
+}
+
+#[test]
+fn sector_reader_errors_name_the_line_and_the_column() {
+    let dir = work_dir("sector-reader-errors");
+    // The header is line 1, so the second data row is line 3.
+    std::fs::write(
+        dir.join("bad.csv"),
+        "name,x_ly,y_ly,z_ly\nA,1,2,3\nB,1,two,3\n",
+    )
+    .unwrap();
+    let err = read_catalogue(&dir.join("bad.csv"))
+        .unwrap_err()
+        .to_string();
+    assert!(
+        err.contains("bad.csv") && err.contains("line 3") && err.contains("y_ly"),
+        "{err}"
+    );
+    // The same through the binary: one sentence, exit code 2.
+    let out = starloom(&dir, &["summary", "bad.csv"]);
+    assert_user_error(&out, "line 3");
+    assert_user_error(&out, "y_ly");
+    // A missing field at the end of line 2.
+    std::fs::write(dir.join("short.csv"), "x_pc,y_pc,z_pc\n1,2\n").unwrap();
+    let err = read_catalogue(&dir.join("short.csv"))
+        .unwrap_err()
+        .to_string();
+    assert!(err.contains("line 2") && err.contains("z_pc"), "{err}");
+    // A bad distance on line 4 of a sky file.
+    std::fs::write(
+        dir.join("sky.csv"),
+        "ra_deg,dec_deg,distance_ly\n10,20,5\n11,21,6\n12,22,far\n",
+    )
+    .unwrap();
+    let err = read_catalogue(&dir.join("sky.csv"))
+        .unwrap_err()
+        .to_string();
+    assert!(
+        err.contains("line 4") && err.contains("distance_ly"),
+        "{err}"
+    );
+    // A bad JSONL line names its line and key.
+    std::fs::write(
+        dir.join("bad.jsonl"),
+        "{\"x_ly\":1,\"y_ly\":2,\"z_ly\":3}\n{\"x_ly\":\"west\",\"y_ly\":2,\"z_ly\":3}\n",
+    )
+    .unwrap();
+    let err = read_catalogue(&dir.join("bad.jsonl"))
+        .unwrap_err()
+        .to_string();
+    assert!(err.contains("line 2") && err.contains("x_ly"), "{err}");
+    // No position columns: the file is named, and the columns it needs.
+    std::fs::write(dir.join("nopos.csv"), "name,mass_msun\nA,1\n").unwrap();
+    let out = starloom(&dir, &["summary", "nopos.csv"]);
+    assert_user_error(&out, "nopos.csv");
+    assert_user_error(&out, "x_ly");
+}
