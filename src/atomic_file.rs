@@ -26,7 +26,9 @@ pub fn check_target(path: &Path, force: bool) -> Result<()> {
 
 /// Writes a file through `fill`, atomically: the bytes go to a hidden
 /// temporary file in the same folder, which is renamed over `path` only
-/// when `fill` succeeded and the data is flushed. On any error the
+/// when `fill` succeeded and the data is handed to the operating system
+/// (not forced to the disk: atomic for readers and failed runs, not a
+/// guarantee against power loss). On any error the
 /// temporary file is removed and `path` is untouched.
 pub fn write_atomic<F>(path: &Path, force: bool, fill: F) -> Result<()>
 where
@@ -43,7 +45,9 @@ where
         let mut writer = BufWriter::with_capacity(1 << 20, file);
         fill(&mut writer)?;
         writer.flush()?;
-        writer.get_ref().sync_data().ok();
+        // No fsync: the rename is what makes the write atomic for readers
+        // and for failed runs. Waiting for a catalogue of hundreds of
+        // megabytes to reach the disk took seconds, longer than making it.
         Ok(())
     })();
     if let Err(e) = result {

@@ -42,9 +42,8 @@ pub fn system_name(seed: u64, system_key: u64, out: &mut String) {
             out.push_str(coda);
         }
     }
-    if let Some(first) = out.get(..1) {
-        let upper = first.to_ascii_uppercase();
-        out.replace_range(..1, &upper);
+    if let Some(first) = out.get_mut(..1) {
+        first.make_ascii_uppercase();
     }
 }
 

@@ -456,12 +456,24 @@ pub fn write_sector(
             format.push_header(&mut head);
         }
         w.write_all(&head)?;
+        w.flush()?;
         let mut done = 0u64;
+        // Filled buffers go to the writer thread in order; emptied ones come
+        // back through `pool`, so pages are touched once, not per batch.
+        let pool: Mutex<Vec<Vec<u8>>> = Mutex::new(Vec::new());
         let (tx, rx) = std::sync::mpsc::sync_channel::<Vec<u8>>(group);
         std::thread::scope(|scope| -> std::io::Result<()> {
+            let pool = &pool;
             let writer = scope.spawn(move || -> std::io::Result<()> {
-                for buf in rx {
-                    w.write_all(&buf)?;
+                // Whole buffers go straight to the file, not through the
+                // BufWriter's own buffer (flushed above).
+                let file = w.get_mut();
+                for mut buf in rx {
+                    file.write_all(&buf)?;
+                    buf.clear();
+                    if let Ok(mut p) = pool.lock() {
+                        p.push(buf);
+                    }
                 }
                 Ok(())
             });
@@ -469,7 +481,11 @@ pub fn write_sector(
                 let outs: Vec<(Vec<u8>, WriteReport)> = chunk
                     .par_iter()
                     .map_init(Scratch::new, |scratch, range| {
-                        let mut buf = Vec::with_capacity(1 << 20);
+                        let mut buf = pool
+                            .lock()
+                            .ok()
+                            .and_then(|mut p| p.pop())
+                            .unwrap_or_else(|| Vec::with_capacity(1 << 21));
                         let mut r = WriteReport::default();
                         for linear in range.clone() {
                             plan.cell_rows(linear, scratch, &mut |row| {

@@ -1,0 +1,82 @@
+//! Whole-path timings of `populate` to CSV (spec → file) for 10^6 and 10^7
+//! stars, and of reading the 10^6 file back with `read_catalogue`.
+//!
+//! Run with `cargo bench --bench populate_csv` (set
+//! `STARLOOM_BENCH_STARS=1e6` for the small case only). Each case writes a
+//! fresh file into a temporary folder and deletes it afterwards; the
+//! 10^7 case writes about 2.7 GB. Printed per case: wall time, ns per
+//! star, bytes written, the process's peak resident memory so far
+//! (`VmHWM`) and the load average beside it, since the machine is shared.
+
+use starloom::catalogue::reader::read_catalogue;
+use starloom::sampler::write_sector;
+use starloom::spec::{DEFAULT_DENSITY_PER_LY3, SectorSpec, Shape};
+use std::time::Instant;
+
+fn proc_field(file: &str, key: &str) -> String {
+    std::fs::read_to_string(file)
+        .ok()
+        .and_then(|t| {
+            t.lines()
+                .find(|l| l.starts_with(key))
+                .map(|l| l[key.len()..].trim().to_string())
+        })
+        .unwrap_or_else(|| "?".into())
+}
+
+fn load_average() -> String {
+    std::fs::read_to_string("/proc/loadavg")
+        .map(|t| t.split_whitespace().take(3).collect::<Vec<_>>().join(" "))
+        .unwrap_or_else(|_| "?".into())
+}
+
+fn main() {
+    let sizes: Vec<f64> = std::env::var("STARLOOM_BENCH_STARS")
+        .unwrap_or_else(|_| "1e6,1e7".into())
+        .split(',')
+        .filter_map(|s| s.trim().parse().ok())
+        .collect();
+    let dir = std::env::temp_dir().join(format!("starloom-bench-{}", std::process::id()));
+    std::fs::create_dir_all(&dir).expect("a temporary folder");
+    println!(
+        "populate_csv: {} threads, load average {}",
+        rayon::current_num_threads(),
+        load_average()
+    );
+    for &stars in &sizes {
+        let edge_ly = (stars / DEFAULT_DENSITY_PER_LY3).cbrt();
+        let spec = SectorSpec::new(
+            7,
+            Shape::Box {
+                size_ly: [edge_ly; 3],
+            },
+            [0.0; 3],
+        );
+        let path = dir.join(format!("sector_{stars:.0e}.csv"));
+        let start = Instant::now();
+        let report = write_sector(&spec, &path, true, None, &|_, _| {}).expect("populate");
+        let seconds = start.elapsed().as_secs_f64();
+        let bytes = std::fs::metadata(&path).map(|m| m.len()).unwrap_or(0);
+        println!(
+            "populate {stars:.0e}: {seconds:.3} s wall, {:.0} ns/star, {} stars ({} rows), {:.0} MB, peak RSS {}, load {}",
+            seconds * 1e9 / report.stars.max(1) as f64,
+            report.stars,
+            report.objects,
+            bytes as f64 / 1e6,
+            proc_field("/proc/self/status", "VmHWM:"),
+            load_average()
+        );
+        if stars <= 2e6 {
+            let start = Instant::now();
+            let cat = read_catalogue(&path).expect("read back");
+            let seconds = start.elapsed().as_secs_f64();
+            println!(
+                "read_catalogue {stars:.0e}: {seconds:.3} s wall for {} rows, load {}",
+                cat.len(),
+                load_average()
+            );
+        }
+        let _ = std::fs::remove_file(&path);
+    }
+    let _ = std::fs::remove_dir_all(&dir);
+}
