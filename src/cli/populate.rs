@@ -10,6 +10,10 @@ use std::process::ExitCode;
 
 /// Arguments of `starloom populate`.
 #[derive(Debug, clap::Args)]
+#[command(
+    after_help = "The hz_inner_au/hz_outer_au columns and the habitable-host flag are simplified \
+models for fiction and games, not guidance for any real-world decision."
+)]
 pub struct PopulateArgs {
     /// A spec file (TOML); flags given here override its values.
     #[arg(long)]

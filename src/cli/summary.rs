@@ -8,6 +8,10 @@ use std::process::ExitCode;
 
 /// Arguments of `starloom summary`.
 #[derive(Debug, clap::Args)]
+#[command(
+    after_help = "The hz_inner_au/hz_outer_au columns and the habitable-host flag are simplified \
+models for fiction and games, not guidance for any real-world decision."
+)]
 pub struct SummaryArgs {
     /// The catalogue (.csv or .jsonl).
     pub catalogue: PathBuf,

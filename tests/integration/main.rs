@@ -1,6 +1,7 @@
 //! Integration tests, compiled as one binary: one module per area.
 
 mod census_hot_stars;
+mod cli_demo;
 mod cli_map;
 mod cli_routes;
 mod cli_sky;
