@@ -196,8 +196,9 @@ fn suggestion_clause(names: &[String]) -> String {
     }
 }
 
-/// Levenshtein distance (insertions, deletions, substitutions).
-fn edit_distance(a: &[char], b: &[char]) -> usize {
+/// Levenshtein distance (insertions, deletions, substitutions), used to
+/// suggest close names.
+pub(crate) fn edit_distance(a: &[char], b: &[char]) -> usize {
     let mut prev: Vec<usize> = (0..=b.len()).collect();
     let mut cur = vec![0; b.len() + 1];
     for (i, ca) in a.iter().enumerate() {

@@ -61,6 +61,7 @@ use crate::catalogue::Catalogue;
 use crate::catalogue::number_format::{push_fixed, push_sig, push_u64};
 use crate::error::{Error, Result};
 use crate::physics::photometry::{NO_LIGHT_MAG, apparent_mag};
+use crate::routes::edit_distance;
 use crate::units::AU_PER_LY;
 use rayon::prelude::*;
 use std::path::Path;
@@ -386,21 +387,6 @@ fn close_names(cat: &Catalogue, lower: &str, n: usize) -> Vec<String> {
         }
     }
     out
-}
-
-/// Levenshtein edit distance (insertions, deletions, substitutions).
-fn edit_distance(a: &[char], b: &[char]) -> usize {
-    let mut prev: Vec<usize> = (0..=b.len()).collect();
-    let mut cur = vec![0; b.len() + 1];
-    for (i, ca) in a.iter().enumerate() {
-        cur[0] = i + 1;
-        for (j, cb) in b.iter().enumerate() {
-            let sub = prev[j] + usize::from(ca != cb);
-            cur[j + 1] = sub.min(prev[j + 1] + 1).min(cur[j] + 1);
-        }
-        std::mem::swap(&mut prev, &mut cur);
-    }
-    prev[b.len()]
 }
 
 /// Column names of the sky CSV, units in the names.
