@@ -11,6 +11,12 @@
 //! classification, colour, habitable-zone and magnitude functions; rules
 //! 80 ns/star. Wall-clock medians under that load were 1.5–2.5× higher;
 //! the best quiet run gave 66 / 88 / 90 / 79 ms per 10^6.
+//!
+//! Re-measured 2026-12-02 07:20 UTC on an idle 2-core VM (load 0.5), with
+//! the real light functions: fastest / median wall time per 10^6 — evolve
+//! only 101 / 105 ms, complete profile 186 / 200 ms (0.08–2 Msun) and
+//! 230 / 275 ms (0.013–150 Msun), rules 143 / 158 ms. The complete fitted
+//! profile misses the 100 ns target by about 2x.
 
 use rand::RngExt;
 use starloom::physics::{Fidelity, KindChoice, StarRequest, star_profile};
