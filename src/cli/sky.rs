@@ -1,7 +1,8 @@
 //! The `sky` command: the night sky seen from one star of a catalogue.
 
 use crate::error::Error;
-use crate::render::paper::{Paper, Theme};
+use crate::render::output::parse_dpi;
+use crate::render::paper::{Paper, Theme, parse_paper, parse_theme};
 use crate::sky::{self, ChartOptions, SkyOptions, SkyView};
 use std::io::Write;
 use std::path::{Path, PathBuf};
@@ -90,13 +91,6 @@ fn parse_outputs(paths: &[PathBuf], force: bool) -> crate::Result<Vec<Output>> {
     Ok(outs)
 }
 
-fn parse_positive(option: &str, text: &str, allowed: &str, max: f64) -> crate::Result<f64> {
-    match text.trim().parse::<f64>() {
-        Ok(v) if v.is_finite() && v > 0.0 && v <= max => Ok(v),
-        _ => Err(Error::invalid(option, text, allowed)),
-    }
-}
-
 /// Every setting checked before the catalogue is read.
 struct Settings {
     options: SkyOptions,
@@ -123,28 +117,15 @@ fn settings(args: &SkyArgs) -> crate::Result<Settings> {
         toward,
     )?;
     let paper = match &args.paper {
-        Some(t) => Paper::parse(t).ok_or_else(|| {
-            let names: Vec<&str> = Paper::ALL.iter().map(|p| p.as_str()).collect();
-            Error::invalid(
-                "--paper",
-                t,
-                format!("it must be one of {}", names.join(", ")),
-            )
-        })?,
+        Some(t) => parse_paper(t)?,
         None => Paper::A4,
     };
     let theme = match &args.theme {
-        Some(t) => Theme::parse(t)
-            .ok_or_else(|| Error::invalid("--theme", t, "it must be print or screen"))?,
+        Some(t) => parse_theme(t)?,
         None => Theme::Print,
     };
     let dpi = match &args.dpi {
-        Some(t) => parse_positive(
-            "--dpi",
-            t,
-            "it must be a resolution from 1 to 2400 dots per inch",
-            2400.0,
-        )? as f32,
+        Some(t) => parse_dpi(t)?,
         None => 300.0,
     };
     let labels = match &args.labels {

@@ -1,8 +1,8 @@
 //! The `summary` command: counts, shares and statistics of a catalogue.
 
 use crate::render::hr_diagram::hr_scene;
-use crate::render::output::{Format, check_dpi, write_scenes};
-use crate::render::paper::Theme;
+use crate::render::output::{Format, parse_dpi, write_scenes};
+use crate::render::paper::{Theme, parse_theme};
 use std::path::PathBuf;
 use std::process::ExitCode;
 
@@ -39,17 +39,8 @@ pub struct SummaryArgs {
 
 /// Checks the diagram options before any work, so a refusal costs nothing.
 fn diagram_options(args: &SummaryArgs) -> crate::Result<Option<(PathBuf, f32, Theme)>> {
-    let dpi: f32 = args.dpi.trim().parse().map_err(|_| {
-        crate::Error::invalid(
-            "--dpi",
-            &args.dpi,
-            "it must be a resolution from 10 to 2400 dots per inch",
-        )
-    })?;
-    check_dpi("--dpi", dpi)?;
-    let theme = Theme::parse(&args.theme).ok_or_else(|| {
-        crate::Error::invalid("--theme", &args.theme, "it must be print or screen")
-    })?;
+    let dpi = parse_dpi(&args.dpi)?;
+    let theme = parse_theme(&args.theme)?;
     let Some(path) = &args.hr else {
         return Ok(None);
     };

@@ -153,38 +153,8 @@ impl Default for MapOptions {
     }
 }
 
-/// Parses `--paper`.
-pub fn parse_paper(text: &str) -> Result<Paper> {
-    Paper::parse(text.trim()).ok_or_else(|| {
-        Error::invalid(
-            "--paper",
-            text,
-            "it must be one of a4, a3, a2, a1, a0, letter, legal, tabloid",
-        )
-    })
-}
-
-/// Parses `--theme`.
-pub fn parse_theme(text: &str) -> Result<Theme> {
-    Theme::parse(text.trim())
-        .ok_or_else(|| Error::invalid("--theme", text, "it must be print or screen"))
-}
-
-/// Parses `--dpi` (10–2400).
-pub fn parse_dpi(text: &str) -> Result<f32> {
-    let bad = || {
-        Error::invalid(
-            "--dpi",
-            text,
-            "it must be a number of dots per inch from 10 to 2400",
-        )
-    };
-    let v: f64 = text.trim().parse().map_err(|_| bad())?;
-    if !(10.0..=2400.0).contains(&v) {
-        return Err(bad());
-    }
-    Ok(v as f32)
-}
+pub use crate::render::output::parse_dpi;
+pub use crate::render::paper::{parse_paper, parse_theme};
 
 /// Parses `--tilt` (0–89 degrees).
 pub fn parse_tilt(text: &str) -> Result<f64> {

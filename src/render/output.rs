@@ -58,6 +58,22 @@ pub fn check_dpi(option: &str, dpi: f32) -> Result<()> {
     Ok(())
 }
 
+/// Parses `--dpi` as typed: a number within [`DPI_RANGE`].
+pub fn parse_dpi(text: &str) -> Result<f32> {
+    let bad = || {
+        Error::invalid(
+            "--dpi",
+            text,
+            "it must be a number of dots per inch from 10 to 2400",
+        )
+    };
+    let v: f32 = text.trim().parse().map_err(|_| bad())?;
+    if !(DPI_RANGE.0..=DPI_RANGE.1).contains(&v) {
+        return Err(bad());
+    }
+    Ok(v)
+}
+
 /// Checks everything [`write_scenes`] would refuse (extension, scene
 /// count, resolution, raster size, target folder and an existing file)
 /// without drawing anything.

@@ -110,6 +110,24 @@ impl Theme {
     }
 }
 
+/// Parses `--paper` (any case), with the house sentence naming every size.
+pub fn parse_paper(text: &str) -> crate::Result<Paper> {
+    Paper::parse(text.trim()).ok_or_else(|| {
+        let names: Vec<&str> = Paper::ALL.iter().map(|p| p.as_str()).collect();
+        crate::Error::invalid(
+            "--paper",
+            text,
+            format!("it must be one of {}", names.join(", ")),
+        )
+    })
+}
+
+/// Parses `--theme`: print or screen.
+pub fn parse_theme(text: &str) -> crate::Result<Theme> {
+    Theme::parse(text.trim())
+        .ok_or_else(|| crate::Error::invalid("--theme", text, "it must be print or screen"))
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;

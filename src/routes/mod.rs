@@ -165,8 +165,9 @@ pub fn resolve_system(cat: &Catalogue, text: &str) -> Result<SystemMatch> {
 }
 
 /// Up to three catalogue names closest to `lower` (already lowercase) by
-/// edit distance, nearest first, within a third of its length (at least 2).
-fn close_names(cat: &Catalogue, lower: &str) -> Vec<String> {
+/// edit distance, nearest first (ties in name order), within a third of
+/// its length (at least 2).
+pub(crate) fn close_names(cat: &Catalogue, lower: &str) -> Vec<String> {
     let target: Vec<char> = lower.chars().collect();
     let limit = (target.len() / 3).max(2);
     let mut best: Vec<(usize, String)> = Vec::new();
@@ -196,8 +197,7 @@ fn suggestion_clause(names: &[String]) -> String {
     }
 }
 
-/// Levenshtein distance (insertions, deletions, substitutions), used to
-/// suggest close names.
+/// Levenshtein distance (insertions, deletions, substitutions).
 pub(crate) fn edit_distance(a: &[char], b: &[char]) -> usize {
     let mut prev: Vec<usize> = (0..=b.len()).collect();
     let mut cur = vec![0; b.len() + 1];

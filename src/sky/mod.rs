@@ -61,7 +61,7 @@ use crate::catalogue::Catalogue;
 use crate::catalogue::number_format::{push_fixed, push_sig, push_u64};
 use crate::error::{Error, Result};
 use crate::physics::photometry::{NO_LIGHT_MAG, apparent_mag};
-use crate::routes::edit_distance;
+use crate::routes::close_names;
 use crate::units::AU_PER_LY;
 use rayon::prelude::*;
 use std::path::Path;
@@ -338,7 +338,7 @@ pub fn find_observer(cat: &Catalogue, text: &str) -> Result<usize> {
     if let Some(i) = cat.name.iter().position(|n| n.to_lowercase() == lower) {
         return Ok(i);
     }
-    let close = close_names(cat, &lower, 3);
+    let close = close_names(cat, &lower);
     let suggestion = match close.len() {
         0 => String::new(),
         1 => format!("; did you mean '{}'?", close[0]),
@@ -356,37 +356,6 @@ pub fn find_observer(cat: &Catalogue, text: &str) -> Result<usize> {
         given: given.to_string(),
         suggestion,
     })
-}
-
-/// Up to `n` distinct catalogue names closest to `lower` (already
-/// lowercase) by edit distance, at most max(2, len/3) edits, nearest first.
-fn close_names(cat: &Catalogue, lower: &str, n: usize) -> Vec<String> {
-    let target: Vec<char> = lower.chars().collect();
-    let max_edits = (target.len() / 3).max(2);
-    let mut hits: Vec<(usize, usize)> = cat
-        .name
-        .par_iter()
-        .enumerate()
-        .filter_map(|(i, name)| {
-            let cand: Vec<char> = name.to_lowercase().chars().collect();
-            if cand.len().abs_diff(target.len()) > max_edits {
-                return None;
-            }
-            let d = edit_distance(&target, &cand);
-            (d <= max_edits).then_some((d, i))
-        })
-        .collect();
-    hits.sort_unstable();
-    let mut out: Vec<String> = Vec::new();
-    for (_, i) in hits {
-        if out.len() == n {
-            break;
-        }
-        if !out.contains(&cat.name[i]) {
-            out.push(cat.name[i].clone());
-        }
-    }
-    out
 }
 
 /// Column names of the sky CSV, units in the names.

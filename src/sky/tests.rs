@@ -328,7 +328,7 @@ fn observers_by_id_name_and_suggestions() {
     // Levenshtein (1966) distances: kitten → sitting is 3.
     let k: Vec<char> = "kitten".chars().collect();
     let s: Vec<char> = "sitting".chars().collect();
-    assert_eq!(edit_distance(&k, &s), 3);
+    assert_eq!(crate::routes::edit_distance(&k, &s), 3);
 }
 
 #[test]
