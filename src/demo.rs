@@ -110,7 +110,7 @@ pub fn write_demo(dir: &Path, progress: &(dyn Fn(u64, u64) + Sync)) -> Result<De
     let cat_path = dir.join("amberline.csv");
     crate::sampler::write_sector(&spec, &cat_path, true, None, &|_, _| {})?;
     report.files.push(cat_path.clone());
-    let side = dir.join("amberline.csv.toml");
+    let side = crate::spec::sidecar_path(&cat_path);
     crate::atomic_file::write_bytes(&side, true, crate::spec::to_toml(&spec, None).as_bytes())?;
     report.files.push(side);
     progress(1, total);

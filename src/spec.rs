@@ -776,6 +776,14 @@ pub fn to_spec_file(spec: &SectorSpec, shard: Option<(u64, u64)>) -> SpecFile {
     }
 }
 
+/// The sidecar spec written beside a catalogue: `PATH.toml` (the
+/// catalogue's full file name with `.toml` appended).
+pub fn sidecar_path(catalogue: &Path) -> PathBuf {
+    let mut side = catalogue.as_os_str().to_owned();
+    side.push(".toml");
+    PathBuf::from(side)
+}
+
 /// The sidecar TOML text of a resolved spec.
 pub fn to_toml(spec: &SectorSpec, shard: Option<(u64, u64)>) -> String {
     let body = toml::to_string(&to_spec_file(spec, shard)).unwrap_or_default();

@@ -863,9 +863,7 @@ fn fill_light(c: &mut Catalogue, i: usize, missing: u8) {
 
 /// Title and seed from the sidecar `PATH.toml`, when it exists and parses.
 pub fn read_sidecar_meta(path: &Path) -> CatalogueMeta {
-    let mut side = path.as_os_str().to_owned();
-    side.push(".toml");
-    let side = std::path::PathBuf::from(side);
+    let side = crate::spec::sidecar_path(path);
     match std::fs::read_to_string(&side)
         .ok()
         .and_then(|t| crate::spec::SpecFile::parse(&t, &side).ok())

@@ -285,9 +285,7 @@ fn run_real(args: &PopulateArgs, spec: &spec::SectorSpec, side: &Path) -> crate:
 /// Runs `starloom populate`.
 pub fn run(args: PopulateArgs) -> anyhow::Result<ExitCode> {
     let (spec, shard, drew_seed) = build_spec(&args)?;
-    let mut side = args.out.as_os_str().to_owned();
-    side.push(".toml");
-    let side = PathBuf::from(side);
+    let side = spec::sidecar_path(&args.out);
     crate::catalogue::Format::from_path(&args.out, "--out")?;
     crate::atomic_file::check_target(&args.out, args.force)?;
     crate::atomic_file::check_target(&side, args.force)?;

@@ -58,9 +58,7 @@ pub fn run(args: SummaryArgs) -> anyhow::Result<ExitCode> {
         write_scenes(std::slice::from_ref(&scene), path, *dpi, args.force)?;
     }
     // The sector's own volume, from the sidecar spec when there is one.
-    let mut side = args.catalogue.as_os_str().to_owned();
-    side.push(".toml");
-    let volume = crate::spec::SpecFile::read(std::path::Path::new(&side))
+    let volume = crate::spec::SpecFile::read(&crate::spec::sidecar_path(&args.catalogue))
         .ok()
         .and_then(|f| f.resolve(0, std::path::Path::new("/")).ok())
         .map(|s| s.shape.volume_ly3());
