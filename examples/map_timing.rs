@@ -42,7 +42,10 @@ fn main() -> Result<(), Box<dyn std::error::Error>> {
         }
     };
     let t0 = Instant::now();
-    let cat = starloom::catalogue::reader::read_catalogue(&csv)?;
+    let cat = starloom::catalogue::reader::read_catalogue_columns(
+        &csv,
+        starloom::map::CATALOGUE_COLUMNS,
+    )?;
     let t1 = Instant::now();
     let opts = MapOptions {
         paper: Paper::A3,

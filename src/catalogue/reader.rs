@@ -30,6 +30,112 @@ use std::path::Path;
 /// Nominal solar effective temperature, K (IAU 2015 Resolution B3).
 const TEFF_SUN_K: f64 = 5772.0;
 
+/// A set of catalogue columns a caller needs, for [`read_catalogue_columns`].
+///
+/// Ids, systems and positions are always read. Columns left out of the set
+/// are not parsed; they hold their empty value (`NaN`, an empty name, kind
+/// `main-sequence`, an empty class, white, `false`, `imported`).
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub struct Columns(u32);
+
+impl Columns {
+    /// Ids, systems and positions (always read).
+    pub const POSITIONS: Columns = Columns(0);
+    /// `name`.
+    pub const NAME: Columns = Columns(1 << 0);
+    /// `kind`.
+    pub const KIND: Columns = Columns(1 << 1);
+    /// `class`.
+    pub const CLASS: Columns = Columns(1 << 2);
+    /// `mass_msun`.
+    pub const MASS: Columns = Columns(1 << 3);
+    /// `initial_mass_msun`.
+    pub const INITIAL_MASS: Columns = Columns(1 << 4);
+    /// `radius_rsun`.
+    pub const RADIUS: Columns = Columns(1 << 5);
+    /// `luminosity_lsun`.
+    pub const LUMINOSITY: Columns = Columns(1 << 6);
+    /// `teff_k`.
+    pub const TEFF: Columns = Columns(1 << 7);
+    /// `age_gyr`.
+    pub const AGE: Columns = Columns(1 << 8);
+    /// `lifetime_gyr`.
+    pub const LIFETIME: Columns = Columns(1 << 9);
+    /// `hz_inner_au` and `hz_outer_au`.
+    pub const HABITABLE_ZONE: Columns = Columns(1 << 10);
+    /// `colour_hex`.
+    pub const COLOUR: Columns = Columns(1 << 11);
+    /// `abs_mag_v`.
+    pub const ABS_MAG_V: Columns = Columns(1 << 12);
+    /// `separation_au`.
+    pub const SEPARATION: Columns = Columns(1 << 13);
+    /// `period_days`.
+    pub const PERIOD: Columns = Columns(1 << 14);
+    /// `habitable_host`.
+    pub const HABITABLE_HOST: Columns = Columns(1 << 15);
+    /// `origin`.
+    pub const ORIGIN: Columns = Columns(1 << 16);
+    /// Every column.
+    pub const ALL: Columns = Columns((1 << 17) - 1);
+    /// Columns that the reader derives with the physics core when a file
+    /// leaves them out.
+    const DERIVED: Columns = Columns(
+        Self::KIND.0
+            | Self::CLASS.0
+            | Self::INITIAL_MASS.0
+            | Self::RADIUS.0
+            | Self::LUMINOSITY.0
+            | Self::TEFF.0
+            | Self::LIFETIME.0
+            | Self::HABITABLE_ZONE.0
+            | Self::COLOUR.0
+            | Self::ABS_MAG_V.0
+            | Self::HABITABLE_HOST.0,
+    );
+
+    /// Both sets together.
+    pub const fn with(self, other: Columns) -> Columns {
+        Columns(self.0 | other.0)
+    }
+
+    /// True when every column of `other` is in this set.
+    pub const fn contains(self, other: Columns) -> bool {
+        self.0 & other.0 == other.0
+    }
+
+    /// The set a column belongs to; positions, ids, systems and unknown
+    /// columns are in every set.
+    fn of(col: Col) -> Columns {
+        match col {
+            Col::Name => Self::NAME,
+            Col::Kind => Self::KIND,
+            Col::Class => Self::CLASS,
+            Col::Mass => Self::MASS,
+            Col::InitialMass => Self::INITIAL_MASS,
+            Col::Radius => Self::RADIUS,
+            Col::Lum => Self::LUMINOSITY,
+            Col::Teff => Self::TEFF,
+            Col::Age => Self::AGE,
+            Col::Lifetime => Self::LIFETIME,
+            Col::HzIn | Col::HzOut => Self::HABITABLE_ZONE,
+            Col::Colour => Self::COLOUR,
+            Col::AbsMag => Self::ABS_MAG_V,
+            Col::Sep => Self::SEPARATION,
+            Col::Period => Self::PERIOD,
+            Col::Habitable => Self::HABITABLE_HOST,
+            Col::Origin => Self::ORIGIN,
+            _ => Self::POSITIONS,
+        }
+    }
+}
+
+impl std::ops::BitOr for Columns {
+    type Output = Columns;
+    fn bitor(self, other: Columns) -> Columns {
+        self.with(other)
+    }
+}
+
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 enum Col {
     Id,
@@ -118,10 +224,46 @@ struct Layout {
     cols: Vec<Col>,
     names: Vec<String>,
     positions: Positions,
+    /// Columns parsed and stored; the others are skipped.
+    wanted: Columns,
 }
 
-fn make_layout(path: &Path, names: Vec<String>) -> Result<Layout> {
-    let cols: Vec<Col> = names.iter().map(|n| column_of(n)).collect();
+impl Layout {
+    /// The same layout reading every column.
+    fn all_columns(&self) -> Layout {
+        Layout {
+            cols: self.names.iter().map(|n| column_of(n)).collect(),
+            names: self.names.clone(),
+            positions: self.positions,
+            wanted: Columns::ALL,
+        }
+    }
+}
+
+/// Lays out a header for reading `wanted`. When the header lacks a wanted
+/// column that physics would derive, every column is read, since the
+/// derivation needs them.
+fn make_layout(path: &Path, names: Vec<String>, wanted: Columns) -> Result<Layout> {
+    let all: Vec<Col> = names.iter().map(|n| column_of(n)).collect();
+    let present = all
+        .iter()
+        .fold(Columns::POSITIONS, |acc, &c| acc.with(Columns::of(c)));
+    let derived_wanted = Columns(wanted.0 & Columns::DERIVED.0);
+    let wanted = if present.contains(derived_wanted) {
+        wanted
+    } else {
+        Columns::ALL
+    };
+    let cols: Vec<Col> = all
+        .into_iter()
+        .map(|c| {
+            if wanted.contains(Columns::of(c)) {
+                c
+            } else {
+                Col::Ignored
+            }
+        })
+        .collect();
     let has = |c: Col| cols.contains(&c);
     let positions = if has(Col::Xly) && has(Col::Yly) && has(Col::Zly) {
         Positions::Ly
@@ -141,16 +283,22 @@ fn make_layout(path: &Path, names: Vec<String>) -> Result<Layout> {
         cols,
         names,
         positions,
+        wanted,
     })
 }
 
-/// Powers of ten that are exact in binary.
-const POW10: [f64; 16] = [
-    1e0, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15,
+/// Powers of ten that are exact in binary (10^22 is the largest).
+const POW10: [f64; 23] = [
+    1e0, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15, 1e16,
+    1e17, 1e18, 1e19, 1e20, 1e21, 1e22,
 ];
 
-/// Parses a decimal number quickly: exact (correctly rounded) for up to
-/// 15 significant digits without an exponent, else the standard parser.
+/// Parses a decimal number quickly. A mantissa of up to 15 significant
+/// digits scaled by a power of ten up to 10^22 either way is exact
+/// (correctly rounded), since both operands are exact doubles and IEEE 754
+/// rounds one multiplication or division correctly (Clinger 1990, "How to
+/// read floating point numbers accurately", PLDI '90, the fast path);
+/// anything else goes to the standard parser.
 #[inline]
 fn parse_f64(s: &str) -> Option<f64> {
     let b = s.as_bytes();
@@ -163,32 +311,63 @@ fn parse_f64(s: &str) -> Option<f64> {
     let mut n_digits = 0;
     let mut decimals = 0i32;
     let mut seen_point = false;
-    let mut ok = !digits.is_empty();
-    for &c in digits {
+    let mut i = 0;
+    while i < digits.len() {
+        let c = digits[i];
         match c {
             b'0'..=b'9' => {
-                mantissa = mantissa * 10 + (c - b'0') as u64;
+                mantissa = mantissa.wrapping_mul(10).wrapping_add((c - b'0') as u64);
                 n_digits += 1;
-                if seen_point {
-                    decimals += 1;
-                }
+                decimals += i32::from(seen_point);
             }
             b'.' if !seen_point => seen_point = true,
-            _ => {
-                ok = false;
-                break;
+            _ => break,
+        }
+        i += 1;
+    }
+    let mut exponent = 0i32;
+    if i < digits.len() {
+        // Only an exponent may follow: e or E, a sign, 1 to 3 digits.
+        if !matches!(digits[i], b'e' | b'E') || n_digits == 0 {
+            return s.parse::<f64>().ok();
+        }
+        let exp = &digits[i + 1..];
+        let (exp_neg, exp_digits) = match exp.first() {
+            Some(b'-') => (true, &exp[1..]),
+            Some(b'+') => (false, &exp[1..]),
+            _ => (false, exp),
+        };
+        if exp_digits.is_empty() || exp_digits.len() > 3 {
+            return s.parse::<f64>().ok();
+        }
+        for &c in exp_digits {
+            if !c.is_ascii_digit() {
+                return None;
             }
+            exponent = exponent * 10 + i32::from(c - b'0');
+        }
+        if exp_neg {
+            exponent = -exponent;
         }
     }
-    if ok && n_digits > 0 && n_digits <= 15 {
-        // Both operands are exact, so the division is correctly rounded.
-        let v = mantissa as f64 / POW10[decimals as usize];
-        return Some(if neg { -v } else { v });
+    if n_digits == 0 || n_digits > 15 {
+        return s.parse::<f64>().ok();
     }
-    s.parse::<f64>().ok()
+    let scale = exponent - decimals;
+    let m = mantissa as f64;
+    let v = if (0..=22).contains(&scale) {
+        m * POW10[scale as usize]
+    } else if (-22..0).contains(&scale) {
+        m / POW10[(-scale) as usize]
+    } else {
+        return s.parse::<f64>().ok();
+    };
+    Some(if neg { -v } else { v })
 }
 
 struct Partial {
+    /// Columns held; the others stay empty until [`fill_unread`].
+    wanted: Columns,
     cat: Catalogue,
     missing: Vec<u8>,
     /// Rows whose id / system the file did not give.
@@ -197,8 +376,59 @@ struct Partial {
 }
 
 impl Partial {
-    fn new() -> Partial {
+    /// Room for `rows` more rows in the wanted columns.
+    fn reserve(&mut self, rows: usize) {
+        let w = self.wanted;
+        let c = &mut self.cat;
+        c.id.reserve(rows);
+        c.system.reserve(rows);
+        c.x_ly.reserve(rows);
+        c.y_ly.reserve(rows);
+        c.z_ly.reserve(rows);
+        for (set, col) in [
+            (Columns::MASS, &mut c.mass_msun),
+            (Columns::INITIAL_MASS, &mut c.initial_mass_msun),
+            (Columns::RADIUS, &mut c.radius_rsun),
+            (Columns::LUMINOSITY, &mut c.luminosity_lsun),
+            (Columns::TEFF, &mut c.teff_k),
+            (Columns::AGE, &mut c.age_gyr),
+            (Columns::LIFETIME, &mut c.lifetime_gyr),
+            (Columns::HABITABLE_ZONE, &mut c.hz_inner_au),
+            (Columns::HABITABLE_ZONE, &mut c.hz_outer_au),
+            (Columns::ABS_MAG_V, &mut c.abs_mag_v),
+            (Columns::SEPARATION, &mut c.separation_au),
+            (Columns::PERIOD, &mut c.period_days),
+        ] {
+            if w.contains(set) {
+                col.reserve(rows);
+            }
+        }
+        if w.contains(Columns::NAME) {
+            c.name.reserve(rows);
+        }
+        if w.contains(Columns::KIND) {
+            c.kind.reserve(rows);
+        }
+        if w.contains(Columns::CLASS) {
+            c.class.reserve(rows);
+        }
+        if w.contains(Columns::COLOUR) {
+            c.color_rgb.reserve(rows);
+        }
+        if w.contains(Columns::HABITABLE_HOST) {
+            c.habitable_host.reserve(rows);
+        }
+        if w.contains(Columns::ORIGIN) {
+            c.origin.reserve(rows);
+        }
+        self.missing.reserve(rows);
+        self.no_id.reserve(rows);
+        self.no_system.reserve(rows);
+    }
+
+    fn new(wanted: Columns) -> Partial {
         Partial {
+            wanted,
             cat: Catalogue::default(),
             missing: Vec::new(),
             no_id: Vec::new(),
@@ -206,6 +436,10 @@ impl Partial {
         }
     }
 }
+
+/// The message of a row that a projected read cannot finish (a wanted
+/// value is empty and would need deriving).
+const NEEDS_FULL_READ: &str = "needs the full read";
 
 struct RowError {
     /// Line within the chunk, 0-based.
@@ -215,19 +449,28 @@ struct RowError {
 }
 
 fn parse_hex_colour(s: &str) -> Option<[u8; 3]> {
-    let h = s.strip_prefix('#').unwrap_or(s);
-    if h.len() != 6 || !h.is_ascii() {
+    let h = s.strip_prefix('#').unwrap_or(s).as_bytes();
+    if h.len() != 6 {
         return None;
     }
-    let byte = |i: usize| u8::from_str_radix(&h[i..i + 2], 16).ok();
+    let nibble = |c: u8| match c {
+        b'0'..=b'9' => Some(c - b'0'),
+        b'a'..=b'f' => Some(c - b'a' + 10),
+        b'A'..=b'F' => Some(c - b'A' + 10),
+        _ => None,
+    };
+    let byte = |i: usize| Some(nibble(h[i])? << 4 | nibble(h[i + 1])?);
     Some([byte(0)?, byte(2)?, byte(4)?])
 }
 
 fn parse_bool(s: &str) -> Option<bool> {
-    match s.to_ascii_lowercase().as_str() {
-        "true" | "1" | "yes" | "y" => Some(true),
-        "false" | "0" | "no" | "n" => Some(false),
-        _ => None,
+    let is = |word: &str| s.eq_ignore_ascii_case(word);
+    if is("true") || is("1") || is("yes") || is("y") {
+        Some(true)
+    } else if is("false") || is("0") || is("no") || is("n") {
+        Some(false)
+    } else {
+        None
     }
 }
 
@@ -268,7 +511,7 @@ fn parse_record(
         if col == Col::Ignored {
             continue;
         }
-        let s = raw.trim();
+        let s = raw.trim_ascii();
         let bad = |what: &str| (layout.names[k].clone(), format!("'{s}' is not {what}"));
         let number = || -> std::result::Result<f64, (String, String)> {
             if s.is_empty() {
@@ -401,46 +644,188 @@ fn parse_record(
     if habitable.is_none() {
         missing |= MISSING_HABITABLE;
     }
+    let w = layout.wanted;
+    if w != Columns::ALL {
+        // A projected read derives nothing: a wanted value the row left
+        // empty sends the whole file through the full read.
+        let derivable = (w.contains(Columns::KIND) && kind.is_none())
+            || (w.contains(Columns::CLASS) && class.is_none())
+            || (w.contains(Columns::COLOUR) && colour.is_none())
+            || (w.contains(Columns::HABITABLE_HOST) && habitable.is_none())
+            || (w.contains(Columns::INITIAL_MASS) && num[1].is_nan())
+            || (w.contains(Columns::RADIUS) && num[2].is_nan())
+            || (w.contains(Columns::LUMINOSITY) && num[3].is_nan())
+            || (w.contains(Columns::TEFF) && num[4].is_nan())
+            || (w.contains(Columns::LIFETIME) && num[6].is_nan())
+            || (w.contains(Columns::HABITABLE_ZONE) && (num[7].is_nan() || num[8].is_nan()))
+            || (w.contains(Columns::ABS_MAG_V) && num[9].is_nan());
+        if derivable {
+            return Err((String::new(), NEEDS_FULL_READ.into()));
+        }
+    }
     let c = &mut out.cat;
     c.id.push(id.unwrap_or(0));
     c.system.push(system.unwrap_or(0));
-    c.name.push(name.to_string());
     c.x_ly.push(position[0]);
     c.y_ly.push(position[1]);
     c.z_ly.push(position[2]);
-    c.kind.push(kind.unwrap_or(StarKind::MainSequence));
-    c.class.push(class.unwrap_or(ClassCode::from_str_lossy("")));
-    c.mass_msun.push(num[0]);
-    c.initial_mass_msun.push(num[1]);
-    c.radius_rsun.push(num[2]);
-    c.luminosity_lsun.push(num[3]);
-    c.teff_k.push(num[4]);
-    c.age_gyr.push(num[5]);
-    c.lifetime_gyr.push(num[6]);
-    c.hz_inner_au.push(num[7]);
-    c.hz_outer_au.push(num[8]);
-    c.color_rgb.push(colour.unwrap_or([255, 255, 255]));
-    c.abs_mag_v.push(num[9]);
-    c.separation_au.push(num[10]);
-    c.period_days.push(num[11]);
-    c.habitable_host.push(habitable.unwrap_or(false));
-    c.origin.push(origin);
+    let put = |set: Columns, col: &mut Vec<f64>, v: f64| {
+        if w.contains(set) {
+            col.push(v)
+        }
+    };
+    put(Columns::MASS, &mut c.mass_msun, num[0]);
+    put(Columns::INITIAL_MASS, &mut c.initial_mass_msun, num[1]);
+    put(Columns::RADIUS, &mut c.radius_rsun, num[2]);
+    put(Columns::LUMINOSITY, &mut c.luminosity_lsun, num[3]);
+    put(Columns::TEFF, &mut c.teff_k, num[4]);
+    put(Columns::AGE, &mut c.age_gyr, num[5]);
+    put(Columns::LIFETIME, &mut c.lifetime_gyr, num[6]);
+    put(Columns::HABITABLE_ZONE, &mut c.hz_inner_au, num[7]);
+    put(Columns::HABITABLE_ZONE, &mut c.hz_outer_au, num[8]);
+    put(Columns::ABS_MAG_V, &mut c.abs_mag_v, num[9]);
+    put(Columns::SEPARATION, &mut c.separation_au, num[10]);
+    put(Columns::PERIOD, &mut c.period_days, num[11]);
+    if w.contains(Columns::NAME) {
+        c.name.push(name.to_string());
+    }
+    if w.contains(Columns::KIND) {
+        c.kind.push(kind.unwrap_or(StarKind::MainSequence));
+    }
+    if w.contains(Columns::CLASS) {
+        c.class.push(class.unwrap_or(ClassCode::from_str_lossy("")));
+    }
+    if w.contains(Columns::COLOUR) {
+        c.color_rgb.push(colour.unwrap_or([255, 255, 255]));
+    }
+    if w.contains(Columns::HABITABLE_HOST) {
+        c.habitable_host.push(habitable.unwrap_or(false));
+    }
+    if w.contains(Columns::ORIGIN) {
+        c.origin.push(origin);
+    }
     out.missing.push(missing);
     out.no_id.push(id.is_none());
     out.no_system.push(system.is_none());
     Ok(())
 }
 
+/// Eight bytes with the value 1 each.
+const ONES: u64 = 0x0101_0101_0101_0101;
+/// The low seven bits of each of eight bytes.
+const LOW7: u64 = 0x7f7f_7f7f_7f7f_7f7f;
+
+/// The high bit of each byte of `word` that is a comma (an exact per-byte
+/// test, no carries between bytes; common practice, no source).
+#[inline]
+fn comma_bits(word: u64) -> u64 {
+    let x = word ^ (ONES * u64::from(b','));
+    let y = (x & LOW7).wrapping_add(LOW7);
+    !(y | x | LOW7)
+}
+
+#[inline]
+fn word_at(b: &[u8], at: usize) -> u64 {
+    let mut w = [0u8; 8];
+    w.copy_from_slice(&b[at..at + 8]);
+    u64::from_le_bytes(w)
+}
+
+/// Offset of the `n`-th comma (`n >= 1`) at or after `pos`, eight bytes at
+/// a time.
+#[inline]
+fn nth_comma(b: &[u8], mut pos: usize, mut n: usize) -> Option<usize> {
+    while pos + 8 <= b.len() {
+        let mut bits = comma_bits(word_at(b, pos));
+        let count = bits.count_ones() as usize;
+        if count >= n {
+            for _ in 1..n {
+                bits &= bits - 1;
+            }
+            return Some(pos + (bits.trailing_zeros() / 8) as usize);
+        }
+        n -= count;
+        pos += 8;
+    }
+    for (i, &c) in b[pos..].iter().enumerate() {
+        if c == b',' {
+            n -= 1;
+            if n == 0 {
+                return Some(pos + i);
+            }
+        }
+    }
+    None
+}
+
+/// Number of commas in `b`.
+fn count_commas(b: &[u8]) -> usize {
+    let mut words = b.chunks_exact(8);
+    let mut n: usize = words
+        .by_ref()
+        .map(|w| comma_bits(word_at(w, 0)).count_ones() as usize)
+        .sum();
+    n += words.remainder().iter().filter(|&&c| c == b',').count();
+    n
+}
+
+/// Cuts `line` into one field per header column, leaving the columns the
+/// layout skips empty without looking inside them. False when the line
+/// has more or fewer fields than the header.
+fn split_fields<'a>(line: &'a str, cols: &[Col], fields: &mut Vec<&'a str>) -> bool {
+    let b = line.as_bytes();
+    let n = cols.len();
+    let (mut k, mut pos) = (0usize, 0usize);
+    while k < n {
+        if cols[k] == Col::Ignored {
+            let run = cols[k..].iter().take_while(|&&c| c == Col::Ignored).count();
+            fields.extend(std::iter::repeat_n("", run));
+            if k + run == n {
+                return count_commas(&b[pos..]) == run - 1;
+            }
+            match nth_comma(b, pos, run) {
+                Some(c) => pos = c + 1,
+                None => return false,
+            }
+            k += run;
+        } else if k + 1 == n {
+            if memchr::memchr(b',', &b[pos..]).is_some() {
+                return false;
+            }
+            fields.push(&line[pos..]);
+            return true;
+        } else {
+            match memchr::memchr(b',', &b[pos..]) {
+                Some(c) => {
+                    // Cutting at ASCII bytes keeps every piece valid UTF-8.
+                    fields.push(&line[pos..pos + c]);
+                    pos += c + 1;
+                }
+                None => return false,
+            }
+            k += 1;
+        }
+    }
+    true
+}
+
+/// Parses the rows of `chunk` (whole lines of the body).
 fn parse_chunk(layout: &Layout, chunk: &str) -> std::result::Result<Partial, RowError> {
-    let mut out = Partial::new();
+    let mut out = Partial::new(layout.wanted);
+    out.reserve(memchr::memchr_iter(b'\n', chunk.as_bytes()).count() + 1);
     let mut fields: Vec<&str> = Vec::with_capacity(layout.cols.len() + 1);
-    for (n, line) in chunk.split('\n').enumerate() {
+    for (n, line) in chunk.split_terminator('\n').enumerate() {
         let line = line.strip_suffix('\r').unwrap_or(line);
         if line.trim().is_empty() {
             continue;
         }
         fields.clear();
-        fields.extend(line.split(','));
+        if !split_fields(line, &layout.cols, &mut fields) {
+            // The row's field count is wrong: split it plainly so the
+            // error names the right column.
+            fields.clear();
+            fields.extend(line.split(','));
+        }
         parse_record(layout, &fields, &mut out).map_err(|(column, message)| RowError {
             line_in_chunk: n as u64,
             column,
@@ -453,22 +838,39 @@ fn parse_chunk(layout: &Layout, chunk: &str) -> std::result::Result<Partial, Row
 /// Reads a catalogue file, choosing the format by extension (`.jsonl`
 /// as JSON Lines, anything else as CSV).
 pub fn read_catalogue(path: &Path) -> Result<Catalogue> {
-    let bytes = read_bytes_parallel(path).map_err(|e| Error::MissingInput {
+    read_catalogue_columns(path, Columns::ALL)
+}
+
+/// Reads a catalogue file like [`read_catalogue`], parsing only the
+/// columns in `wanted` (ids, systems and positions always). The other
+/// columns hold their empty values (see [`Columns`]).
+///
+/// # Guarantees
+/// The wanted columns hold exactly what [`read_catalogue`] would give:
+/// when a file leaves a wanted value to be derived, the whole file is read.
+pub fn read_catalogue_columns(path: &Path, wanted: Columns) -> Result<Catalogue> {
+    let missing = |e: std::io::Error| Error::MissingInput {
         path: path.to_path_buf(),
         message: e.to_string(),
-    })?;
+    };
     let is_jsonl = path
         .extension()
         .and_then(|e| e.to_str())
         .is_some_and(|e| e.eq_ignore_ascii_case("jsonl") || e.eq_ignore_ascii_case("ndjson"));
     let mut partial = if is_jsonl {
+        let bytes = read_bytes_parallel(path).map_err(missing)?;
         let text = std::str::from_utf8(&bytes).map_err(|e| not_utf8(path, e.valid_up_to()))?;
         read_jsonl(path, text)?
     } else {
-        read_csv_bytes(path, &bytes)?
+        match read_csv_streamed(path, wanted)? {
+            Some(partial) => partial,
+            None => read_csv_bytes(path, &read_bytes_parallel(path).map_err(missing)?, wanted)?,
+        }
     };
+    let wanted = partial.wanted;
     finish(&mut partial);
     let mut cat = partial.cat;
+    fill_unread(&mut cat, wanted);
     cat.meta = read_sidecar_meta(path);
     Ok(cat)
 }
@@ -534,18 +936,26 @@ enum ChunkError {
     Row(RowError),
 }
 
-fn read_csv_bytes(path: &Path, bytes: &[u8]) -> Result<Partial> {
+/// The header of a CSV file: its layout, the length of a byte-order mark
+/// and where the body starts. `None` when `bytes` holds no complete header
+/// line and more of the file follows.
+fn parse_header(
+    path: &Path,
+    bytes: &[u8],
+    whole_file: bool,
+    wanted: Columns,
+) -> Result<Option<(Layout, usize, usize)>> {
     let bom = if bytes.starts_with(b"\xEF\xBB\xBF") {
         3
     } else {
         0
     };
-    let bytes = &bytes[bom..];
-    let header_end = bytes
-        .iter()
-        .position(|&b| b == b'\n')
-        .unwrap_or(bytes.len());
-    let header = std::str::from_utf8(&bytes[..header_end])
+    let header_end = match memchr::memchr(b'\n', &bytes[bom..]) {
+        Some(i) => bom + i,
+        None if whole_file => bytes.len(),
+        None => return Ok(None),
+    };
+    let header = std::str::from_utf8(&bytes[bom..header_end])
         .map_err(|e| not_utf8(path, bom + e.valid_up_to()))?
         .trim_end_matches('\r');
     if header.trim().is_empty() {
@@ -558,24 +968,41 @@ fn read_csv_bytes(path: &Path, bytes: &[u8]) -> Result<Partial> {
         .split(',')
         .map(|n| n.trim().trim_matches('"').to_string())
         .collect();
-    let layout = make_layout(path, names)?;
-    let body_start = (header_end + 1).min(bytes.len());
+    let layout = make_layout(path, names, wanted)?;
+    Ok(Some((layout, bom, (header_end + 1).min(bytes.len()))))
+}
+
+fn read_csv_bytes(path: &Path, bytes: &[u8], wanted: Columns) -> Result<Partial> {
+    let (layout, bom, body_start) =
+        parse_header(path, bytes, true, wanted)?.expect("a whole file has a header");
+    // Offsets below count from after the byte-order mark.
+    let body_start = body_start - bom;
+    let bytes = &bytes[bom..];
     let body = &bytes[body_start..];
     if body.contains(&b'"') {
         let text = std::str::from_utf8(body)
             .map_err(|e| not_utf8(path, bom + body_start + e.valid_up_to()))?;
-        return read_quoted(path, &layout, text);
+        return read_quoted(path, &layout.all_columns(), text);
     }
     // Line-aligned chunks of about 1 MB, checked for UTF-8 and parsed in parallel.
     let bounds = line_aligned_cuts(body, (body.len() >> 20).clamp(1, 256));
-    let results: Vec<std::result::Result<Partial, ChunkError>> = bounds
-        .par_windows(2)
-        .map(|w| {
-            let chunk = std::str::from_utf8(&body[w[0]..w[1]])
-                .map_err(|e| ChunkError::Utf8(e.valid_up_to()))?;
-            parse_chunk(&layout, chunk).map_err(ChunkError::Row)
-        })
-        .collect();
+    let parse_all = |layout: &Layout| -> Vec<std::result::Result<Partial, ChunkError>> {
+        bounds
+            .par_windows(2)
+            .map(|w| {
+                let chunk = std::str::from_utf8(&body[w[0]..w[1]])
+                    .map_err(|e| ChunkError::Utf8(e.valid_up_to()))?;
+                parse_chunk(layout, chunk).map_err(ChunkError::Row)
+            })
+            .collect()
+    };
+    let mut results = parse_all(&layout);
+    let needs_full = results
+        .iter()
+        .any(|r| matches!(r, Err(ChunkError::Row(e)) if e.message == NEEDS_FULL_READ));
+    if needs_full {
+        results = parse_all(&layout.all_columns());
+    }
     let mut parts = Vec::with_capacity(results.len());
     for (k, r) in results.into_iter().enumerate() {
         match r {
@@ -584,7 +1011,7 @@ fn read_csv_bytes(path: &Path, bytes: &[u8]) -> Result<Partial> {
                 return Err(not_utf8(path, bom + body_start + bounds[k] + at));
             }
             Err(ChunkError::Row(e)) => {
-                let before = body[..bounds[k]].iter().filter(|&&b| b == b'\n').count() as u64;
+                let before = memchr::memchr_iter(b'\n', &body[..bounds[k]]).count() as u64;
                 return Err(Error::BadRow {
                     path: path.to_path_buf(),
                     line: 2 + before + e.line_in_chunk,
@@ -595,6 +1022,176 @@ fn read_csv_bytes(path: &Path, bytes: &[u8]) -> Result<Partial> {
         }
     }
     Ok(concat_partials(parts))
+}
+
+/// Body bytes per piece in a streamed read.
+const STREAM_PIECE_BYTES: usize = 4 << 20;
+/// Bytes read past a piece's end to finish its last line (grown if a line
+/// is longer).
+const STREAM_TAIL_BYTES: usize = 64 << 10;
+
+/// Why a piece of a streamed read failed.
+enum PieceError {
+    Io(std::io::Error),
+    /// Not UTF-8 at this offset in the file.
+    Utf8(u64),
+    /// The piece holds a double quote: the file needs the quoting reader.
+    Quoted,
+    /// A row that does not parse, in the piece whose lines start at this
+    /// offset in the file.
+    Row(u64, RowError),
+}
+
+/// Reads a large CSV file in line-aligned pieces, each read into a reused
+/// buffer and parsed on a worker thread, so no copy of the whole file is
+/// ever held. `Ok(None)` when the file is small, has quoted fields or an
+/// overlong header: the caller then reads it whole.
+fn read_csv_streamed(path: &Path, wanted: Columns) -> Result<Option<Partial>> {
+    read_csv_streamed_in(path, wanted, STREAM_PIECE_BYTES, STREAM_TAIL_BYTES)
+}
+
+/// [`read_csv_streamed`] with a given piece and tail size (small in tests,
+/// to cross many piece boundaries); files under four pieces are left to
+/// the caller.
+fn read_csv_streamed_in(
+    path: &Path,
+    wanted: Columns,
+    piece_bytes: usize,
+    tail_bytes: usize,
+) -> Result<Option<Partial>> {
+    #[cfg(unix)]
+    {
+        use std::os::unix::fs::FileExt;
+        let missing = |e: std::io::Error| Error::MissingInput {
+            path: path.to_path_buf(),
+            message: e.to_string(),
+        };
+        let file = std::fs::File::open(path).map_err(missing)?;
+        let meta = file.metadata().map_err(missing)?;
+        let len = meta.len() as usize;
+        if !meta.is_file() || len < 4 * piece_bytes {
+            return Ok(None);
+        }
+        let mut head = vec![0u8; STREAM_TAIL_BYTES.max(tail_bytes).min(len)];
+        file.read_exact_at(&mut head, 0).map_err(missing)?;
+        let Some((layout, _, body_start)) = parse_header(path, &head, false, wanted)? else {
+            return Ok(None);
+        };
+        let pieces = (len - body_start).div_ceil(piece_bytes);
+        let read_pieces = |layout: &Layout| -> Vec<std::result::Result<Partial, PieceError>> {
+            (0..pieces)
+                .into_par_iter()
+                .map_init(Vec::new, |buf, k| {
+                    let piece = Piece {
+                        start: body_start + k * piece_bytes,
+                        first: k == 0,
+                        piece_bytes,
+                        tail_bytes,
+                    };
+                    read_piece(&file, len, &piece, buf)
+                        .and_then(|(from, lines)| parse_piece(layout, from, lines))
+                })
+                .collect()
+        };
+        let mut results = read_pieces(&layout);
+        let needs_full = results
+            .iter()
+            .any(|r| matches!(r, Err(PieceError::Row(_, e)) if e.message == NEEDS_FULL_READ));
+        if needs_full {
+            results = read_pieces(&layout.all_columns());
+        }
+        let mut parts = Vec::with_capacity(pieces);
+        for r in results {
+            match r {
+                Ok(p) => parts.push(p),
+                Err(PieceError::Quoted) => return Ok(None),
+                Err(PieceError::Io(e)) => return Err(missing(e)),
+                Err(PieceError::Utf8(at)) => return Err(not_utf8(path, at as usize)),
+                Err(PieceError::Row(start, e)) => {
+                    let bytes = std::fs::read(path).map_err(missing)?;
+                    let end = (start as usize).min(bytes.len());
+                    let before = memchr::memchr_iter(b'\n', &bytes[body_start..end]).count();
+                    return Err(Error::BadRow {
+                        path: path.to_path_buf(),
+                        line: 2 + before as u64 + e.line_in_chunk,
+                        column: e.column,
+                        message: e.message,
+                    });
+                }
+            }
+        }
+        Ok(Some(concat_partials(parts)))
+    }
+    #[cfg(not(unix))]
+    {
+        let _ = (path, wanted, piece_bytes, tail_bytes);
+        Ok(None)
+    }
+}
+
+/// Where one piece of a streamed read lies.
+#[cfg(unix)]
+struct Piece {
+    /// File offset of the piece.
+    start: usize,
+    /// The first piece starts at a line start (the body's first line).
+    first: bool,
+    piece_bytes: usize,
+    tail_bytes: usize,
+}
+
+/// Reads the lines that start inside `piece` into `buf`; returns the file
+/// offset of the first such line and the lines.
+#[cfg(unix)]
+fn read_piece<'b>(
+    file: &std::fs::File,
+    len: usize,
+    piece: &Piece,
+    buf: &'b mut Vec<u8>,
+) -> std::result::Result<(u64, &'b [u8]), PieceError> {
+    use std::os::unix::fs::FileExt;
+    let (start, first_piece) = (piece.start, piece.first);
+    let end = (start + piece.piece_bytes).min(len);
+    // One byte before the piece tells whether a line starts at `start`.
+    let from = if first_piece { start } else { start - 1 };
+    let mut to = (end + piece.tail_bytes).min(len);
+    loop {
+        buf.resize(to - from, 0);
+        file.read_exact_at(buf, from as u64)
+            .map_err(PieceError::Io)?;
+        let first = if first_piece {
+            Some(0)
+        } else {
+            memchr::memchr(b'\n', buf).map(|i| i + 1)
+        };
+        let rel_end = end - from;
+        let lines_end = match first {
+            Some(f) if f >= rel_end => return Ok((0, &buf[..0])),
+            Some(_) => memchr::memchr(b'\n', &buf[rel_end - 1..])
+                .map(|j| rel_end + j)
+                .or((to == len).then_some(buf.len())),
+            None if to == len => return Ok((0, &buf[..0])),
+            None => None,
+        };
+        match (first, lines_end) {
+            (Some(f), Some(e)) => return Ok(((from + f) as u64, &buf[f..e])),
+            _ => to = (to + (to - end).max(piece.tail_bytes)).min(len),
+        }
+    }
+}
+
+/// Parses one piece's lines, which start at file offset `from`.
+fn parse_piece(
+    layout: &Layout,
+    from: u64,
+    lines: &[u8],
+) -> std::result::Result<Partial, PieceError> {
+    if memchr::memchr(b'"', lines).is_some() {
+        return Err(PieceError::Quoted);
+    }
+    let text =
+        std::str::from_utf8(lines).map_err(|e| PieceError::Utf8(from + e.valid_up_to() as u64))?;
+    parse_chunk(layout, text).map_err(|e| PieceError::Row(from, e))
 }
 
 /// Joins chunk results in order, each column copied once into a vector of
@@ -608,7 +1205,7 @@ fn concat_partials(parts: Vec<Partial>) -> Partial {
         }
         out
     }
-    let mut all = Partial::new();
+    let mut all = Partial::new(parts.first().map_or(Columns::ALL, |p| p.wanted));
     let ps = &parts[..];
     let c = &mut all.cat;
     rayon::scope(|s| {
@@ -648,7 +1245,7 @@ fn concat_partials(parts: Vec<Partial>) -> Partial {
 }
 
 fn read_quoted(path: &Path, layout: &Layout, body: &str) -> Result<Partial> {
-    let mut out = Partial::new();
+    let mut out = Partial::new(layout.wanted);
     let mut reader = csv::ReaderBuilder::new()
         .has_headers(false)
         .flexible(true)
@@ -684,7 +1281,7 @@ fn read_quoted(path: &Path, layout: &Layout, body: &str) -> Result<Partial> {
 }
 
 fn read_jsonl(path: &Path, text: &str) -> Result<Partial> {
-    let mut out = Partial::new();
+    let mut out = Partial::new(Columns::ALL);
     let mut layout: Option<Layout> = None;
     for (n, line) in text.lines().enumerate() {
         if line.trim().is_empty() {
@@ -702,7 +1299,11 @@ fn read_jsonl(path: &Path, text: &str) -> Result<Partial> {
             .as_object()
             .ok_or_else(|| bad_line("not a JSON object".into()))?;
         if layout.is_none() {
-            layout = Some(make_layout(path, obj.keys().cloned().collect())?);
+            layout = Some(make_layout(
+                path,
+                obj.keys().cloned().collect(),
+                Columns::ALL,
+            )?);
         }
         let l = layout.as_ref().expect("set above");
         let texts: Vec<String> = l
@@ -731,7 +1332,8 @@ fn read_jsonl(path: &Path, text: &str) -> Result<Partial> {
     Ok(out)
 }
 
-/// Fills ids, systems and the physical values a user's file left out.
+/// Fills ids, systems and (in a full read) the physical values a user's
+/// file left out.
 fn finish(p: &mut Partial) {
     let c = &mut p.cat;
     for i in 0..c.len() {
@@ -743,6 +1345,10 @@ fn finish(p: &mut Partial) {
         if p.no_system[i] {
             c.system[i] = c.id[i];
         }
+    }
+    if p.wanted != Columns::ALL {
+        // A projected read only finishes when no wanted value needs deriving.
+        return;
     }
     let needs_physics = |i: usize, c: &Catalogue| {
         p.missing[i] & (MISSING_KIND | MISSING_CLASS | MISSING_COLOUR) != 0
@@ -757,6 +1363,68 @@ fn finish(p: &mut Partial) {
             derive_row(c, i, p.missing[i]);
         }
     }
+}
+
+/// Gives the columns a projected read skipped their empty values, so that
+/// every column has `len()` entries; columns in parallel.
+fn fill_unread(c: &mut Catalogue, wanted: Columns) {
+    let n = c.len();
+    let w = |set: Columns| !wanted.contains(set);
+    let nan = |col: &mut Vec<f64>| *col = vec![f64::NAN; n];
+    rayon::scope(|s| {
+        if w(Columns::NAME) {
+            s.spawn(|_| c.name = vec![String::new(); n]);
+        }
+        if w(Columns::KIND) {
+            s.spawn(|_| c.kind = vec![StarKind::MainSequence; n]);
+        }
+        if w(Columns::CLASS) {
+            s.spawn(|_| c.class = vec![ClassCode::from_str_lossy(""); n]);
+        }
+        if w(Columns::MASS) {
+            s.spawn(|_| nan(&mut c.mass_msun));
+        }
+        if w(Columns::INITIAL_MASS) {
+            s.spawn(|_| nan(&mut c.initial_mass_msun));
+        }
+        if w(Columns::RADIUS) {
+            s.spawn(|_| nan(&mut c.radius_rsun));
+        }
+        if w(Columns::LUMINOSITY) {
+            s.spawn(|_| nan(&mut c.luminosity_lsun));
+        }
+        if w(Columns::TEFF) {
+            s.spawn(|_| nan(&mut c.teff_k));
+        }
+        if w(Columns::AGE) {
+            s.spawn(|_| nan(&mut c.age_gyr));
+        }
+        if w(Columns::LIFETIME) {
+            s.spawn(|_| nan(&mut c.lifetime_gyr));
+        }
+        if w(Columns::HABITABLE_ZONE) {
+            s.spawn(|_| nan(&mut c.hz_inner_au));
+            s.spawn(|_| nan(&mut c.hz_outer_au));
+        }
+        if w(Columns::COLOUR) {
+            s.spawn(|_| c.color_rgb = vec![[255, 255, 255]; n]);
+        }
+        if w(Columns::ABS_MAG_V) {
+            s.spawn(|_| nan(&mut c.abs_mag_v));
+        }
+        if w(Columns::SEPARATION) {
+            s.spawn(|_| nan(&mut c.separation_au));
+        }
+        if w(Columns::PERIOD) {
+            s.spawn(|_| nan(&mut c.period_days));
+        }
+        if w(Columns::HABITABLE_HOST) {
+            s.spawn(|_| c.habitable_host = vec![false; n]);
+        }
+        if w(Columns::ORIGIN) {
+            s.spawn(|_| c.origin = vec![Origin::Imported; n]);
+        }
+    });
 }
 
 fn derive_row(c: &mut Catalogue, i: usize, missing: u8) {
@@ -1055,5 +1723,180 @@ mod tests {
         let p = temp("q2.csv", "name,x_ly,y_ly,z_ly\n\"Rest, the\",1,2,3\n");
         let cat = read_catalogue(&p).unwrap();
         assert_eq!(cat.name[0], "Rest, the");
+    }
+
+    #[test]
+    fn fast_parser_matches_the_standard_parser_with_exponents() {
+        // The standard library's parser is correctly rounded; the fast path
+        // must give the same bits.
+        for s in [
+            "2.3142e-5",
+            "1.5E+3",
+            "-7.25e-12",
+            "9.99999e22",
+            "1e-22",
+            "123456789012345e-22",
+            "1e23",
+            "4.2e-300",
+            "0.000012345",
+            "1234567890123456",
+        ] {
+            assert_eq!(parse_f64(s), s.parse::<f64>().ok(), "{s}");
+        }
+        for s in ["1e", "1e+", "e5", "1.2.3", "1e5x", "--1"] {
+            assert_eq!(parse_f64(s), s.parse::<f64>().ok(), "{s}");
+        }
+    }
+
+    #[test]
+    fn comma_scanning_matches_a_plain_search() {
+        let line = b"a,,bc,defghijk,lmnopqrstu,v,w,xyz0123456789,,end";
+        let commas: Vec<usize> = (0..line.len()).filter(|&i| line[i] == b',').collect();
+        for start in 0..line.len() {
+            let after: Vec<usize> = commas.iter().copied().filter(|&c| c >= start).collect();
+            for n in 1..=after.len() + 1 {
+                assert_eq!(
+                    nth_comma(line, start, n),
+                    after.get(n - 1).copied(),
+                    "{start} {n}"
+                );
+            }
+            assert_eq!(count_commas(&line[start..]), after.len());
+        }
+        // Bytes next to a comma in value (0x2b, 0x2d) and 0x80+ are no commas.
+        let odd = "+-\u{ac}\u{2c}é,x".as_bytes();
+        assert_eq!(count_commas(odd), 2);
+    }
+
+    /// A catalogue in our own format, several kinds, with exponents.
+    fn own_format_csv(rows: usize) -> String {
+        let mut text = String::from(
+            "id,system,designation,name,x_ly,y_ly,z_ly,kind,class,mass_msun,initial_mass_msun,radius_rsun,luminosity_lsun,teff_k,age_gyr,lifetime_gyr,hz_inner_au,hz_outer_au,colour_hex,abs_mag_v,separation_au,period_days,habitable_host,origin\n",
+        );
+        for i in 0..rows {
+            let (kind, class, lum) = match i % 3 {
+                0 => ("main-sequence", "M3V", "0.0078239"),
+                1 => ("brown-dwarf", "T1", "2.3142e-5"),
+                _ => ("white-dwarf", "DA5.2", "0.00031"),
+            };
+            let sys = i - i % 2;
+            text.push_str(&format!(
+                "{i},{sys},d/{i},Star {i},{}.5,-{}.25,{},{kind},{class},0.23,0.23,0.25,{lum},3402,2.7,678.2,0.095,0.18,#ffc486,11.997,{},{},{},generated\n",
+                sys % 97,
+                sys % 13,
+                sys % 7,
+                i % 2,
+                (i % 2) * 3,
+                i % 5 == 0
+            ));
+        }
+        text
+    }
+
+    fn same_columns(a: &Catalogue, b: &Catalogue, wanted: Columns) {
+        assert_eq!(a.len(), b.len());
+        assert_eq!(a.id, b.id);
+        assert_eq!(a.system, b.system);
+        assert_eq!((&a.x_ly, &a.y_ly, &a.z_ly), (&b.x_ly, &b.y_ly, &b.z_ly));
+        let bits = |v: &[f64]| v.iter().map(|x| x.to_bits()).collect::<Vec<_>>();
+        if wanted.contains(Columns::NAME) {
+            assert_eq!(a.name, b.name);
+        }
+        if wanted.contains(Columns::KIND) {
+            assert_eq!(a.kind, b.kind);
+        }
+        if wanted.contains(Columns::CLASS) {
+            assert_eq!(a.class, b.class);
+        }
+        if wanted.contains(Columns::LUMINOSITY) {
+            assert_eq!(bits(&a.luminosity_lsun), bits(&b.luminosity_lsun));
+        }
+        if wanted.contains(Columns::TEFF) {
+            assert_eq!(bits(&a.teff_k), bits(&b.teff_k));
+        }
+        if wanted.contains(Columns::COLOUR) {
+            assert_eq!(a.color_rgb, b.color_rgb);
+        }
+        if wanted.contains(Columns::HABITABLE_HOST) {
+            assert_eq!(a.habitable_host, b.habitable_host);
+        }
+        if wanted.contains(Columns::ORIGIN) {
+            assert_eq!(a.origin, b.origin);
+        }
+        if wanted.contains(Columns::SEPARATION) {
+            assert_eq!(bits(&a.separation_au), bits(&b.separation_au));
+        }
+    }
+
+    #[test]
+    fn projected_reads_give_the_wanted_columns_of_the_full_read() {
+        let p = temp("own.csv", &own_format_csv(300));
+        let full = read_catalogue(&p).unwrap();
+        assert_eq!(full.kind[1], StarKind::BrownDwarf);
+        assert_eq!(full.luminosity_lsun[1], 2.3142e-5);
+        let wanted = Columns::NAME | Columns::KIND | Columns::LUMINOSITY | Columns::ORIGIN;
+        let part = read_catalogue_columns(&p, wanted).unwrap();
+        same_columns(&full, &part, wanted);
+        // Columns left out hold their empty values, one per row.
+        assert_eq!(part.mass_msun.len(), 300);
+        assert!(part.mass_msun.iter().all(|m| m.is_nan()));
+        assert!(part.class.iter().all(|c| c.as_str().is_empty()));
+        // A wanted column the file lacks is derived, as in the full read.
+        let p = temp(
+            "few.csv",
+            "name,x_ly,y_ly,z_ly,teff_k,luminosity_lsun\nSunlike,1,0,0,5772,1\n",
+        );
+        let part = read_catalogue_columns(&p, Columns::CLASS).unwrap();
+        assert_eq!(part.class[0].as_str(), "G2V");
+        // So is a wanted value a row leaves empty.
+        let p = temp(
+            "gap.csv",
+            "name,x_ly,y_ly,z_ly,teff_k,luminosity_lsun,class\nA,1,0,0,5772,1,\nB,2,0,0,4440,0.2,K5V\n",
+        );
+        let part = read_catalogue_columns(&p, Columns::CLASS).unwrap();
+        assert_eq!(part.class[0].as_str(), "G2V");
+        assert_eq!(part.class[1].as_str(), "K5V");
+    }
+
+    #[test]
+    fn streamed_reads_match_the_whole_file_read_across_piece_edges() {
+        let text = own_format_csv(400);
+        let p = temp("stream.csv", &text);
+        let whole = read_csv_bytes(&p, text.as_bytes(), Columns::ALL).unwrap();
+        // Pieces smaller than a line and tails smaller than a line make
+        // every boundary case occur (line starting exactly at a piece, line
+        // longer than the tail, last line without a newline).
+        for (piece, tail) in [(97, 13), (200, 200), (1000, 7), (4096, 64)] {
+            for wanted in [Columns::ALL, crate::map::CATALOGUE_COLUMNS] {
+                let streamed = read_csv_streamed_in(&p, wanted, piece, tail)
+                    .unwrap()
+                    .expect("large enough to stream");
+                same_columns(&whole.cat, &streamed.cat, wanted);
+            }
+        }
+        let trimmed = temp("stream2.csv", text.trim_end());
+        let streamed = read_csv_streamed_in(&trimmed, Columns::ALL, 333, 5)
+            .unwrap()
+            .unwrap();
+        same_columns(&whole.cat, &streamed.cat, Columns::ALL);
+        // A bad row deep in the file is reported with its line number.
+        let mut bad = text.clone();
+        let at = bad.match_indices('\n').nth(250).unwrap().0 + 1;
+        bad.insert_str(at, "1,1,x,Broken,1,oops,3,main-sequence,G2V,1,1,1,1,5772,1,10,1,2,#ffffff,4.8,0,0,true,generated\n");
+        let p = temp("stream_bad.csv", &bad);
+        let err = match read_csv_streamed_in(&p, Columns::ALL, 512, 16) {
+            Err(e) => e.to_string(),
+            Ok(_) => panic!("a bad row must fail"),
+        };
+        assert!(err.contains("line 252") && err.contains("y_ly"), "{err}");
+        // Quoted fields hand the file back to the whole-file reader.
+        let quoted = text.replacen("Star 5,", "\"Star, 5\",", 1);
+        let p = temp("stream_q.csv", &quoted);
+        assert!(
+            read_csv_streamed_in(&p, Columns::ALL, 512, 16)
+                .unwrap()
+                .is_none()
+        );
+        assert_eq!(read_catalogue(&p).unwrap().name[5], "Star, 5");
     }
 }

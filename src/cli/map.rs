@@ -174,7 +174,10 @@ fn settings(
 /// Runs `starloom map`.
 pub fn run(args: MapArgs) -> anyhow::Result<ExitCode> {
     let (mut opts, jump_ly, lanes, route) = settings(&args)?;
-    let cat = crate::catalogue::reader::read_catalogue(&args.catalogue)?;
+    let cat = crate::catalogue::reader::read_catalogue_columns(
+        &args.catalogue,
+        crate::map::CATALOGUE_COLUMNS.with(crate::routes::CATALOGUE_COLUMNS),
+    )?;
     if opts.title.is_none() && cat.meta.title.is_none() {
         opts.title = args
             .catalogue

@@ -163,7 +163,10 @@ pub fn run(args: RoutesArgs) -> anyhow::Result<ExitCode> {
     for out in [&args.out, &args.lanes_out].into_iter().flatten() {
         crate::atomic_file::check_target(out, args.force)?;
     }
-    let cat = crate::catalogue::read_catalogue(&args.catalogue)?;
+    let cat = crate::catalogue::reader::read_catalogue_columns(
+        &args.catalogue,
+        crate::routes::CATALOGUE_COLUMNS,
+    )?;
     let systems = Systems::from_catalogue(&cat);
     let ends = match &request {
         Some(r) => {

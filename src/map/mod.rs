@@ -28,6 +28,19 @@ pub use layout::Frame;
 pub use options::{LabelMode, Layers, MapOptions};
 pub use sheet::{MAX_TILES, MapSheet, MapSheets, SheetRole, build_sheets};
 
+use crate::catalogue::reader::Columns;
+
+/// The catalogue columns a map sheet draws from (besides ids, systems and
+/// positions), for [`crate::catalogue::reader::read_catalogue_columns`].
+pub const CATALOGUE_COLUMNS: Columns = Columns::NAME
+    .with(Columns::KIND)
+    .with(Columns::CLASS)
+    .with(Columns::COLOUR)
+    .with(Columns::LUMINOSITY)
+    .with(Columns::TEFF)
+    .with(Columns::HABITABLE_HOST)
+    .with(Columns::ORIGIN);
+
 use crate::error::{Error, Result};
 use crate::render::scene::Scene;
 use std::path::{Path, PathBuf};
