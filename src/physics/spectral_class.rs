@@ -425,9 +425,13 @@ impl TeffBuckets {
         hotter: impl Fn(f64, f64) -> bool,
         teff_k: f64,
     ) -> usize {
-        if !(teff_k >= BUCKET_MIN_K) {
-            // Below the grid every value is hotter; NaN compares false.
-            return if teff_k.is_nan() { 0 } else { values.len() };
+        if teff_k.is_nan() {
+            // NaN compares false with every value.
+            return 0;
+        }
+        if teff_k < BUCKET_MIN_K {
+            // Below the grid every value is hotter.
+            return values.len();
         }
         if teff_k >= BUCKET_MAX_K {
             return 0;
@@ -521,7 +525,7 @@ fn white_dwarf_code(teff_k: f64) -> ClassCode {
 /// without the library call `round` is on baseline x86-64; NaN and
 /// infinity pass through.
 fn round_half_away(x: f64) -> f64 {
-    if !(x < 4_503_599_627_370_496.0) {
+    if x.is_nan() || x >= 4_503_599_627_370_496.0 {
         // 2^52 and above (or NaN): already an integer.
         return x;
     }
@@ -537,7 +541,7 @@ fn round_half_away(x: f64) -> f64 {
 /// class follows from kind, Teff and luminosity.
 ///
 /// # Allocations
-/// None: a bucket lookup over precomputed boundaries ([`TeffBuckets`]),
+/// None: a bucket lookup over precomputed boundaries (on the bits of Teff),
 /// then a copy of a ready-made inline code. Gives exactly the result of
 /// [`classify_by_search`], the plain binary search (tested on a dense
 /// sweep and on every boundary).
