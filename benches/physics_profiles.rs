@@ -17,6 +17,25 @@
 //! only 101 / 105 ms, complete profile 186 / 200 ms (0.08–2 Msun) and
 //! 230 / 275 ms (0.013–150 Msun), rules 143 / 158 ms. The complete fitted
 //! profile misses the 100 ns target by about 2x.
+//!
+//! After the fast path (compact mass nodes for main-sequence stars and
+//! remnants, bucket lookups for class and dwarf BC_V, blackbody BC_V table,
+//! logarithms shared between the pieces), measured 2026-12-02 09:21 UTC on
+//! the same 2-core VM, shared with other sessions that were building (load
+//! average 0.9 during the runs, 4–5 shortly before), old and new binaries
+//! back to back, fastest / median wall time per 10^6:
+//! - evolve only: 61.9 / 63.0 ms before, 46.8 / 46.9 ms after;
+//! - complete fitted profile, 0.013–150 Msun: 172.9 / 175.6 ms before,
+//!   109.4 / 109.8 ms after;
+//! - complete fitted profile, 0.08–2 Msun: 165.2 / 165.5 ms before,
+//!   115.9 / 116.1 ms after;
+//! - rules: 131.9 / 132.1 ms before, 96.6 / 96.7 ms after.
+//!
+//! CPU time per iteration (task-clock, 25 minus 5 samples, over 20) agreed
+//! within 1 ms. The fitted profile is still 10–16 % above the 100 ns
+//! target; what remains is the habitable zone (four divisions and square
+//! roots, about 10 ns), two exponentials for L and R, the Stefan–Boltzmann
+//! square roots and, under load, cache misses on the 358 KB node table.
 
 use rand::RngExt;
 use starloom::physics::{Fidelity, KindChoice, StarRequest, star_profile};

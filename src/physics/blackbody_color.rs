@@ -188,6 +188,7 @@ static COLOR_LUT: LazyLock<Vec<[f32; 3]>> = LazyLock::new(|| {
 /// # Source
 /// Planck (1901) × CIE 1931 2° (CIE 2019 data set) → IEC 61966-2-1 sRGB;
 /// agrees with [`color_rgb_direct`] within 1/255 per channel.
+#[inline]
 pub fn color_rgb(teff_k: f64) -> [u8; 3] {
     let t = clamp_teff(teff_k);
     let bits = t.to_bits();
@@ -202,12 +203,14 @@ pub fn color_rgb(teff_k: f64) -> [u8; 3] {
         idx = LUT_LEN - 2;
         fraction = 1.0;
     }
-    let lut = &*COLOR_LUT;
+    let lut: &[[f32; 3]] = &COLOR_LUT;
     let (lo, hi) = (lut[idx], lut[idx + 1]);
-    [0, 1, 2].map(|c| {
+    // Written out per channel (an array `map` here was not inlined).
+    let channel = |c: usize| {
         let v = lo[c] as f64 + (hi[c] as f64 - lo[c] as f64) * fraction;
         to_u8(v)
-    })
+    };
+    [channel(0), channel(1), channel(2)]
 }
 
 #[cfg(test)]

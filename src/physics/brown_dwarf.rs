@@ -24,8 +24,25 @@ const MIN_AGE_GYR: f64 = 1e-3;
 
 /// Luminosity, Lsun, of a brown dwarf of this mass (Msun) and age (Gyr).
 pub fn luminosity_lsun(mass_msun: f64, age_gyr: f64) -> f64 {
+    4e-5 * cooling_exponent(mass_msun, age_gyr).exp()
+}
+
+/// [`luminosity_lsun`] and its log10, from one exponential (the log10
+/// differs from `log10` of the luminosity by rounding only; tested).
+pub fn luminosity_and_log10(mass_msun: f64, age_gyr: f64) -> (f64, f64) {
+    /// log10(4e-5), to the last bit (a test checks it).
+    const LOG10_NORMALISATION: f64 = -4.397_940_008_672_037_5;
+    let x = cooling_exponent(mass_msun, age_gyr);
+    (
+        4e-5 * x.exp(),
+        LOG10_NORMALISATION + x * std::f64::consts::LOG10_E,
+    )
+}
+
+/// ln(L / 4e-5 Lsun) of the cooling law.
+fn cooling_exponent(mass_msun: f64, age_gyr: f64) -> f64 {
     let t = age_gyr.max(MIN_AGE_GYR);
-    4e-5 * (-1.3 * t.ln() + 2.64 * (mass_msun / 0.05).ln()).exp()
+    -1.3 * t.ln() + 2.64 * (mass_msun / 0.05).ln()
 }
 
 /// Radius, Rsun, of a brown dwarf at this age (Gyr).
@@ -54,6 +71,18 @@ mod tests {
         let t = teff_k(luminosity_lsun(0.05, 5.0), radius_rsun(5.0));
         assert!((450.0..2270.0).contains(&t), "{t}");
         assert!((radius_rsun(5.0) / 0.1 - 1.0).abs() < 0.15);
+    }
+
+    #[test]
+    fn log10_of_the_luminosity() {
+        assert_eq!(-4.397_940_008_672_037_5, 4e-5f64.log10());
+        for i in 0..=1000 {
+            let m = 0.013 + 0.062 * i as f64 / 1000.0;
+            let age = 13.8 * ((i * 37) % 1001) as f64 / 1000.0;
+            let (l, log10_l) = luminosity_and_log10(m, age);
+            assert_eq!(l, luminosity_lsun(m, age));
+            assert!((log10_l - l.log10()).abs() < 1e-13, "{m} {age}");
+        }
     }
 
     #[test]

@@ -50,6 +50,7 @@ use super::brown_dwarf;
 use super::effective_temperature::teff_k;
 use super::giant_branch::{CoreMassLuminosity, giant_radius_rsun};
 use super::kinds::StarKind;
+use super::light::{KnownLogs, LOG10_TEFF_SUN_K};
 use super::main_sequence::{self, main_sequence_l_r};
 use super::neutron_star;
 use super::track_table;
@@ -312,6 +313,18 @@ impl Track {
         self.white_dwarf_progenitor
     }
 
+    /// Mass of the white dwarf left behind, Msun (0 unless
+    /// [`Track::white_dwarf_progenitor`]).
+    pub fn white_dwarf_msun(&self) -> f64 {
+        self.mc_final
+    }
+
+    /// Radius of a white dwarf of the relation's final mass, Rsun (computed
+    /// for every track).
+    pub fn white_dwarf_rsun(&self) -> f64 {
+        self.r_white_dwarf
+    }
+
     /// The kind reported for a burning post-main-sequence stage.
     fn evolved(&self, kind: StarKind) -> StarKind {
         if self.mass_msun > SUPERGIANT_MIN_INITIAL_MSUN {
@@ -503,6 +516,94 @@ pub fn main_sequence_body(mass: f64, age: f64, t_ms: f64) -> Body {
 
 /// Follows a star of this initial mass to this age (fitted fidelity).
 pub fn evolve(initial_mass_msun: f64, age_gyr: f64, thresholds: &RemnantThresholds) -> Body {
+    evolve_with_logs(initial_mass_msun, age_gyr, thresholds).0
+}
+
+/// [`evolve`], with log10 L and log10 Teff where they come for free (main
+/// sequence, brown dwarfs; NaN otherwise), for the light functions.
+///
+/// # Fast path
+/// With the default thresholds, main-sequence stars and remnants read only
+/// the compact nodes of [`track_table`] (one cache line per node) and give
+/// exactly what interpolating the whole track gives (tested for equality);
+/// the burning stages after the main sequence interpolate the whole track.
+#[inline]
+pub fn evolve_with_logs(
+    initial_mass_msun: f64,
+    age_gyr: f64,
+    thresholds: &RemnantThresholds,
+) -> (Body, KnownLogs) {
+    use std::f64::consts::LOG10_E;
+    let m = initial_mass_msun;
+    if m < HYDROGEN_BURNING_MIN_MSUN {
+        let (l, log10_l) = brown_dwarf::luminosity_and_log10(m, age_gyr);
+        let r = brown_dwarf::radius_rsun(age_gyr);
+        let body = Body::new(StarKind::BrownDwarf, m, m, r, l, age_gyr, 0.0);
+        let logs = KnownLogs {
+            log10_luminosity: log10_l,
+            log10_teff: f64::NAN,
+        };
+        return (body, logs);
+    }
+    if *thresholds != RemnantThresholds::default() {
+        return (evolve_direct(m, age_gyr, thresholds), KnownLogs::NONE);
+    }
+    let cell = track_table::cell(m);
+    let t_ms = cell.t_ms_gyr();
+    if age_gyr < t_ms {
+        let (ln_l, ln_r) = cell.node().ln_l_r(age_gyr);
+        let body = Body::new(
+            StarKind::MainSequence,
+            m,
+            m,
+            ln_r.exp(),
+            ln_l.exp(),
+            age_gyr,
+            t_ms,
+        );
+        // Teff = 5772 K · L^(1/4) · R^(-1/2) (effective_temperature.rs).
+        let logs = KnownLogs {
+            log10_luminosity: ln_l * LOG10_E,
+            log10_teff: LOG10_TEFF_SUN_K + (0.25 * ln_l - 0.5 * ln_r) * LOG10_E,
+        };
+        return (body, logs);
+    }
+    let t_end = cell.t_end_gyr();
+    if age_gyr >= t_end && cell.same_remnant() && (m - M_EC_MSUN).abs() >= 1e-9 {
+        // What `Track::remnant` gives on the interpolated track.
+        let cooling = age_gyr - t_end;
+        let body = if cell.white_dwarf_progenitor() {
+            let (mass, r) = cell.white_dwarf();
+            let l = white_dwarf::cooling_luminosity_lsun(mass, cooling);
+            Body::new(StarKind::WhiteDwarf, mass, m, r, l, age_gyr, t_ms)
+        } else if m <= thresholds.neutron_star_max_initial_msun {
+            neutron_star_body(
+                neutron_star::mass_from_initial_msun(m),
+                m,
+                cooling,
+                age_gyr,
+                t_ms,
+            )
+        } else {
+            let mass =
+                black_hole::mass_from_initial_msun(m, thresholds.neutron_star_max_initial_msun);
+            black_hole_body(mass, m, age_gyr, t_ms)
+        };
+        return (body, KnownLogs::NONE);
+    }
+    (
+        track_table::track(m).state_at(age_gyr, thresholds),
+        KnownLogs::NONE,
+    )
+}
+
+/// [`evolve`] by interpolating the whole track for every star after the
+/// main sequence: the reference the fast path is tested against.
+pub fn evolve_by_tracks(
+    initial_mass_msun: f64,
+    age_gyr: f64,
+    thresholds: &RemnantThresholds,
+) -> Body {
     let m = initial_mass_msun;
     if m < HYDROGEN_BURNING_MIN_MSUN {
         return brown_dwarf_body(m, age_gyr);
@@ -510,7 +611,6 @@ pub fn evolve(initial_mass_msun: f64, age_gyr: f64, thresholds: &RemnantThreshol
     if *thresholds != RemnantThresholds::default() {
         return evolve_direct(m, age_gyr, thresholds);
     }
-    // Fast path: interpolate the precomputed table (track_table.rs).
     let node = track_table::main_sequence_node(m);
     if age_gyr < node.t_ms_gyr {
         let (l, r) = node.l_r(age_gyr);
@@ -638,6 +738,37 @@ mod tests {
         assert_eq!(s.luminosity_lsun, 50.0);
         assert!((7.0..13.0).contains(&s.radius_rsun), "{}", s.radius_rsun);
         assert!((4300.0..5200.0).contains(&s.teff_k), "{}", s.teff_k);
+    }
+
+    #[test]
+    fn fast_path_equals_whole_track_interpolation() {
+        // Dense sweep of 0.013–150 Msun × 0–13.8 Gyr: the compact-node fast path gives
+        // bit for bit what interpolating the whole track gives, and its logarithms
+        // agree with log10 of the results (rounding only).
+        let th = RemnantThresholds::default();
+        let mut n_remnants = 0;
+        for i in 0..=2000 {
+            let m = 0.013 * (150.0f64 / 0.013).powf(i as f64 / 2000.0);
+            for m in [m, M_EC_MSUN, M_EC_MSUN * (1.0 + 1e-12), 20.0] {
+                for j in 0..=60 {
+                    let age = 13.8 * j as f64 / 60.0;
+                    let (fast, logs) = evolve_with_logs(m, age, &th);
+                    assert_eq!(fast, evolve_by_tracks(m, age, &th), "{m} {age}");
+                    if fast.kind.is_remnant() {
+                        n_remnants += 1;
+                    }
+                    if !logs.log10_luminosity.is_nan() {
+                        let d = logs.log10_luminosity - fast.luminosity_lsun.log10();
+                        assert!(d.abs() < 1e-13, "{m} {age}: {d}");
+                    }
+                    if !logs.log10_teff.is_nan() {
+                        let d = logs.log10_teff - fast.teff_k.log10();
+                        assert!(d.abs() < 1e-13, "{m} {age}: {d}");
+                    }
+                }
+            }
+        }
+        assert!(n_remnants > 10_000);
     }
 
     #[test]

@@ -165,6 +165,32 @@ impl ClassCode {
         }
     }
 
+    /// A code from ASCII bytes known at compile time (at most 15 are kept).
+    pub(crate) const fn from_ascii(text: &[u8]) -> ClassCode {
+        let mut bytes = [0u8; 15];
+        let mut len = 0;
+        while len < text.len() && len < 15 {
+            bytes[len] = text[len];
+            len += 1;
+        }
+        ClassCode {
+            bytes,
+            len: len as u8,
+        }
+    }
+
+    /// A code from the first `len` (at most 15) of these bytes, which the
+    /// caller guarantees are ASCII, with zeros after them (as every other
+    /// constructor leaves them, so that equal codes compare equal).
+    pub(crate) fn from_bytes(bytes: [u8; 15], len: usize) -> ClassCode {
+        debug_assert!(bytes[..len.min(15)].is_ascii());
+        debug_assert!(bytes[len.min(15)..].iter().all(|&b| b == 0));
+        ClassCode {
+            bytes,
+            len: len.min(15) as u8,
+        }
+    }
+
     /// The code as text.
     pub fn as_str(&self) -> &str {
         // Only ASCII bytes are ever stored.

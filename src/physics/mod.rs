@@ -21,6 +21,7 @@ pub mod explicit_kind;
 pub mod giant_branch;
 pub mod habitable_host;
 pub mod kinds;
+pub mod light;
 pub mod main_sequence;
 pub mod neutron_star;
 pub mod request_limits;
@@ -74,51 +75,40 @@ pub fn star_profile_with(
 ) -> StarProfile {
     let mass = request.mass.get();
     let age = request.age.get();
-    let body = match (request.kind, fidelity) {
-        (KindChoice::Auto, Fidelity::Fitted) => evolution::evolve(mass, age, thresholds),
-        (KindChoice::Auto, Fidelity::Rules) => rules::evolve(mass, age, thresholds),
-        (KindChoice::Explicit(kind), _) => {
-            explicit_kind::build(kind, mass, age, fidelity, thresholds)
+    let (body, logs) = match (request.kind, fidelity) {
+        (KindChoice::Auto, Fidelity::Fitted) => evolution::evolve_with_logs(mass, age, thresholds),
+        (KindChoice::Auto, Fidelity::Rules) => {
+            (rules::evolve(mass, age, thresholds), light::KnownLogs::NONE)
         }
+        (KindChoice::Explicit(kind), _) => (
+            explicit_kind::build(kind, mass, age, fidelity, thresholds),
+            light::KnownLogs::NONE,
+        ),
     };
-    profile_from_body(&body, fidelity)
+    profile_from_body(&body, fidelity, logs)
 }
 
 /// Adds classification, colour, habitable zone and magnitude to a body.
-fn profile_from_body(body: &evolution::Body, fidelity: Fidelity) -> StarProfile {
-    let (l, teff) = (body.luminosity_lsun, body.teff_k);
-    let shines = l > 0.0 && teff > 0.0;
-    let hz = if !shines {
-        HabitableZone {
-            inner_au: 0.0,
-            outer_au: 0.0,
-            optimistic_inner_au: 0.0,
-            optimistic_outer_au: 0.0,
-            teff_in_range: false,
-        }
-    } else {
-        match fidelity {
-            Fidelity::Fitted => habitable_zone::habitable_zone(teff, l),
-            Fidelity::Rules => habitable_zone::habitable_zone_rules(l),
-        }
-    };
+#[inline]
+fn profile_from_body(
+    body: &evolution::Body,
+    fidelity: Fidelity,
+    logs: light::KnownLogs,
+) -> StarProfile {
+    let lit = light::light(body.kind, body.teff_k, body.luminosity_lsun, logs, fidelity);
     StarProfile {
         kind: body.kind,
-        class: spectral_class::classify(body.kind, teff, l, body.mass_msun),
+        class: lit.class,
         mass_msun: body.mass_msun,
         initial_mass_msun: body.initial_mass_msun,
         radius_rsun: body.radius_rsun,
-        luminosity_lsun: l,
-        teff_k: teff,
+        luminosity_lsun: body.luminosity_lsun,
+        teff_k: body.teff_k,
         age_gyr: body.age_gyr,
         lifetime_gyr: body.lifetime_gyr,
-        hz,
-        color_rgb: if shines {
-            blackbody_color::color_rgb(teff)
-        } else {
-            [0, 0, 0]
-        },
-        abs_mag_v: photometry::abs_mag_v(body.kind, teff, l),
+        hz: lit.hz,
+        color_rgb: lit.color_rgb,
+        abs_mag_v: lit.abs_mag_v,
         habitable_host: habitable_host::is_habitable_host(
             body.kind,
             body.initial_mass_msun,

@@ -30,8 +30,10 @@ const FIRST_BITS: u64 = (MIN_MSUN.to_bits() >> SHIFT) << SHIFT;
 /// Number of nodes: the last one is at or just above MAX_MSUN.
 const N_NODES: usize = (((MAX_MSUN.to_bits() - FIRST_BITS) >> SHIFT) + 2) as usize;
 
-/// Main-sequence quantities of one mass, in the form the hot path uses.
+/// Main-sequence quantities of one mass, in the form the hot path uses,
+/// with what a remnant needs from its track: one 64-byte cache line.
 #[derive(Debug, Clone, Copy, PartialEq)]
+#[repr(C, align(64))]
 pub struct MainSequenceNode {
     /// ln L_ZAMS (Lsun).
     pub ln_l_zams: f64,
@@ -43,37 +45,114 @@ pub struct MainSequenceNode {
     pub dln_r: f64,
     /// Main-sequence lifetime, Gyr.
     pub t_ms_gyr: f64,
+    /// End of the last burning stage, Gyr ([`Track::t_end_gyr`]).
+    pub t_end_gyr: f64,
+    /// Mass of the white dwarf left behind, Msun; 0 for a star that leaves
+    /// a neutron star or a black hole.
+    pub white_dwarf_msun: f64,
+    /// Radius of that white dwarf, Rsun.
+    pub white_dwarf_rsun: f64,
 }
 
 impl MainSequenceNode {
-    fn new(m: f64) -> MainSequenceNode {
+    fn new(m: f64, track: &Track) -> MainSequenceNode {
         MainSequenceNode {
             ln_l_zams: main_sequence::zams_luminosity_lsun(m).ln(),
             ln_r_zams: main_sequence::zams_radius_rsun(m).ln(),
             dln_l: main_sequence::delta_log_l_tms(m) * std::f64::consts::LN_10,
             dln_r: main_sequence::delta_log_r_tms(m) * std::f64::consts::LN_10,
             t_ms_gyr: main_sequence::t_ms_gyr(m),
+            t_end_gyr: track.t_end_gyr,
+            white_dwarf_msun: track.white_dwarf_msun(),
+            white_dwarf_rsun: track.white_dwarf_rsun(),
         }
     }
 
-    fn lerp(&self, other: &MainSequenceNode, w: f64) -> MainSequenceNode {
-        let f = |a: f64, b: f64| a + (b - a) * w;
-        MainSequenceNode {
-            ln_l_zams: f(self.ln_l_zams, other.ln_l_zams),
-            ln_r_zams: f(self.ln_r_zams, other.ln_r_zams),
-            dln_l: f(self.dln_l, other.dln_l),
-            dln_r: f(self.dln_r, other.dln_r),
-            t_ms_gyr: f(self.t_ms_gyr, other.t_ms_gyr),
-        }
+    /// True when the star leaves a white dwarf.
+    pub fn white_dwarf_progenitor(&self) -> bool {
+        self.white_dwarf_msun > 0.0
     }
 
     /// Luminosity (Lsun) and radius (Rsun) at `age_gyr` on the main sequence.
     pub fn l_r(&self, age_gyr: f64) -> (f64, f64) {
+        let (ln_l, ln_r) = self.ln_l_r(age_gyr);
+        (ln_l.exp(), ln_r.exp())
+    }
+
+    /// ln L (Lsun) and ln R (Rsun) at `age_gyr` on the main sequence.
+    #[inline]
+    pub fn ln_l_r(&self, age_gyr: f64) -> (f64, f64) {
         let (shape_l, shape_r) = main_sequence::shapes(age_gyr / self.t_ms_gyr);
         (
-            (self.ln_l_zams + self.dln_l * shape_l).exp(),
-            (self.ln_r_zams + self.dln_r * shape_r).exp(),
+            self.ln_l_zams + self.dln_l * shape_l,
+            self.ln_r_zams + self.dln_r * shape_r,
         )
+    }
+}
+
+/// Two neighbouring nodes and the weight of the upper one.
+#[derive(Debug, Clone, Copy)]
+pub struct Cell {
+    lower: &'static MainSequenceNode,
+    upper: &'static MainSequenceNode,
+    weight: f64,
+}
+
+impl Cell {
+    /// Linear interpolation of one quantity between the two nodes.
+    #[inline]
+    fn lerp(&self, f: impl Fn(&MainSequenceNode) -> f64) -> f64 {
+        let a = f(self.lower);
+        a + (f(self.upper) - a) * self.weight
+    }
+
+    /// Interpolated main-sequence lifetime, Gyr.
+    #[inline]
+    pub fn t_ms_gyr(&self) -> f64 {
+        self.lerp(|n| n.t_ms_gyr)
+    }
+
+    /// Interpolated end of the last burning stage, Gyr (what
+    /// [`track`] gives as `t_end_gyr` when [`Cell::same_remnant`] holds).
+    #[inline]
+    pub fn t_end_gyr(&self) -> f64 {
+        self.lerp(|n| n.t_end_gyr)
+    }
+
+    /// Interpolated white-dwarf mass (Msun) and radius (Rsun).
+    #[inline]
+    pub fn white_dwarf(&self) -> (f64, f64) {
+        (
+            self.lerp(|n| n.white_dwarf_msun),
+            self.lerp(|n| n.white_dwarf_rsun),
+        )
+    }
+
+    /// True when both nodes leave the same kind of remnant (white dwarf or
+    /// not): only then does [`track`] interpolate instead of computing directly.
+    #[inline]
+    pub fn same_remnant(&self) -> bool {
+        self.lower.white_dwarf_progenitor() == self.upper.white_dwarf_progenitor()
+    }
+
+    /// True when the lower node leaves a white dwarf.
+    #[inline]
+    pub fn white_dwarf_progenitor(&self) -> bool {
+        self.lower.white_dwarf_progenitor()
+    }
+
+    /// The fully interpolated node.
+    pub fn node(&self) -> MainSequenceNode {
+        MainSequenceNode {
+            ln_l_zams: self.lerp(|n| n.ln_l_zams),
+            ln_r_zams: self.lerp(|n| n.ln_r_zams),
+            dln_l: self.lerp(|n| n.dln_l),
+            dln_r: self.lerp(|n| n.dln_r),
+            t_ms_gyr: self.lerp(|n| n.t_ms_gyr),
+            t_end_gyr: self.lerp(|n| n.t_end_gyr),
+            white_dwarf_msun: self.lerp(|n| n.white_dwarf_msun),
+            white_dwarf_rsun: self.lerp(|n| n.white_dwarf_rsun),
+        }
     }
 }
 
@@ -84,10 +163,14 @@ struct Table {
 
 static TABLE: LazyLock<Table> = LazyLock::new(|| {
     let thresholds = RemnantThresholds::default();
-    let masses = (0..N_NODES).map(node_mass);
+    let tracks: Box<[Track]> = (0..N_NODES)
+        .map(|i| Track::new(node_mass(i), &thresholds))
+        .collect();
     Table {
-        main_sequence: masses.clone().map(MainSequenceNode::new).collect(),
-        tracks: masses.map(|m| Track::new(m, &thresholds)).collect(),
+        main_sequence: (0..N_NODES)
+            .map(|i| MainSequenceNode::new(node_mass(i), &tracks[i]))
+            .collect(),
+        tracks,
     }
 });
 
@@ -100,7 +183,8 @@ fn node_mass(i: usize) -> f64 {
 /// Nodes are read straight from the bits of the mass: within one octave the
 /// mantissa is linear in the mass, so the upper bits give the node and the
 /// lower bits the interpolation weight, without a logarithm.
-fn cell(mass_msun: f64) -> (usize, f64) {
+#[inline]
+fn cell_index(mass_msun: f64) -> (usize, f64) {
     let m = mass_msun.clamp(MIN_MSUN, MAX_MSUN);
     let offset = m.to_bits() - FIRST_BITS;
     let i = ((offset >> SHIFT) as usize).min(N_NODES - 2);
@@ -108,16 +192,26 @@ fn cell(mass_msun: f64) -> (usize, f64) {
     (i, low as f64 * (1.0 / (1u64 << SHIFT) as f64))
 }
 
+/// The two nodes around a mass of 0.075–150 Msun.
+#[inline]
+pub fn cell(mass_msun: f64) -> Cell {
+    let (i, weight) = cell_index(mass_msun);
+    let nodes: &'static [MainSequenceNode] = &LazyLock::force(&TABLE).main_sequence;
+    Cell {
+        lower: &nodes[i],
+        upper: &nodes[i + 1],
+        weight,
+    }
+}
+
 /// Interpolated main-sequence values for a mass of 0.075–150 Msun.
 pub fn main_sequence_node(mass_msun: f64) -> MainSequenceNode {
-    let (i, w) = cell(mass_msun);
-    let nodes = &TABLE.main_sequence;
-    nodes[i].lerp(&nodes[i + 1], w)
+    cell(mass_msun).node()
 }
 
 /// The track of a mass of 0.075–150 Msun for the default remnant thresholds.
 pub fn track(mass_msun: f64) -> Track {
-    let (i, w) = cell(mass_msun);
+    let (i, w) = cell_index(mass_msun);
     let tracks = &TABLE.tracks;
     let (a, b) = (&tracks[i], &tracks[i + 1]);
     if a.white_dwarf_progenitor() != b.white_dwarf_progenitor()
@@ -143,7 +237,7 @@ mod tests {
         assert!(node_mass(0) <= MIN_MSUN && node_mass(N_NODES - 1) >= MAX_MSUN);
         assert!(node_mass(N_NODES - 2) <= MAX_MSUN);
         for m in [0.075, 0.1, 0.75, 1.0, 1.37, 2.0, 63.0, 150.0] {
-            let (i, w) = cell(m);
+            let (i, w) = cell_index(m);
             let back = node_mass(i) + w * (node_mass(i + 1) - node_mass(i));
             assert!((back / m - 1.0).abs() < 1e-15, "{m}");
             assert!((0.0..=1.0).contains(&w));
@@ -157,7 +251,7 @@ mod tests {
         let mut m = 0.0751;
         while m < 150.0 {
             let node = main_sequence_node(m);
-            let exact = MainSequenceNode::new(m);
+            let exact = MainSequenceNode::new(m, &Track::new(m, &th));
             assert!(rel(node.t_ms_gyr, exact.t_ms_gyr) < 1e-4, "{m}");
             for tau in [0.0, 0.5, 1.0] {
                 let (l, r) = node.l_r(tau * exact.t_ms_gyr);
