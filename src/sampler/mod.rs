@@ -448,7 +448,9 @@ pub fn write_sector(
     crate::atomic_file::check_target(path, force)?;
     let list = batches(&plan, shard);
     let total: u64 = list.iter().map(|r| r.end - r.start).sum();
-    let group = (rayon::current_num_threads() * 4).max(4);
+    // Batches in flight at once: enough to keep every thread busy while
+    // finished ones wait for their turn to be written.
+    let window = (rayon::current_num_threads() * 4).max(4);
     let mut report = WriteReport::default();
     crate::atomic_file::write_atomic(path, force, |w| {
         let mut head = Vec::new();
@@ -457,63 +459,70 @@ pub fn write_sector(
         }
         w.write_all(&head)?;
         w.flush()?;
-        let mut done = 0u64;
-        // Filled buffers go to the writer thread in order; emptied ones come
-        // back through `pool`, so pages are touched once, not per batch.
+        // Whole buffers go straight to the file, not through the
+        // BufWriter's own buffer (flushed above).
+        let file = w.get_mut();
+        // Emptied buffers are reused, so pages are touched once, not per batch.
         let pool: Mutex<Vec<Vec<u8>>> = Mutex::new(Vec::new());
-        let (tx, rx) = std::sync::mpsc::sync_channel::<Vec<u8>>(group);
-        std::thread::scope(|scope| -> std::io::Result<()> {
-            let pool = &pool;
-            let writer = scope.spawn(move || -> std::io::Result<()> {
-                // Whole buffers go straight to the file, not through the
-                // BufWriter's own buffer (flushed above).
-                let file = w.get_mut();
-                for mut buf in rx {
-                    file.write_all(&buf)?;
+        let (tx, rx) = std::sync::mpsc::channel::<(usize, Vec<u8>, WriteReport)>();
+        let mut result = Ok(());
+        // A sliding window: the pool generates and formats batches while
+        // this thread writes the finished ones in batch order, so neither
+        // waits for the slowest batch of a group.
+        rayon::in_place_scope(|scope| {
+            let (plan, pool, list) = (&plan, &pool, &list);
+            let spawn = |i: usize| {
+                let tx = tx.clone();
+                scope.spawn(move |_| {
+                    let mut scratch = Scratch::new();
+                    let mut buf = pool
+                        .lock()
+                        .ok()
+                        .and_then(|mut p| p.pop())
+                        .unwrap_or_else(|| Vec::with_capacity(1 << 21));
+                    let mut r = WriteReport::default();
+                    for linear in list[i].clone() {
+                        plan.cell_rows(linear, &mut scratch, &mut |row| {
+                            r.objects += 1;
+                            r.stars += row.profile.kind.is_star() as u64;
+                            r.systems += (row.id == row.system) as u64;
+                            format.push_row(&mut buf, row);
+                        });
+                    }
+                    let _ = tx.send((i, buf, r));
+                });
+            };
+            let mut spawned = list.len().min(window);
+            (0..spawned).for_each(spawn);
+            let mut ready = std::collections::BTreeMap::new();
+            let mut next = 0;
+            let mut done = 0u64;
+            while next < list.len() && result.is_ok() {
+                let Ok((i, buf, r)) = rx.recv() else { break };
+                ready.insert(i, (buf, r));
+                while let Some((mut buf, r)) = ready.remove(&next) {
+                    if let Err(e) = file.write_all(&buf) {
+                        result = Err(e);
+                        break;
+                    }
+                    report.objects += r.objects;
+                    report.stars += r.stars;
+                    report.systems += r.systems;
                     buf.clear();
                     if let Ok(mut p) = pool.lock() {
                         p.push(buf);
                     }
-                }
-                Ok(())
-            });
-            for chunk in list.chunks(group) {
-                let outs: Vec<(Vec<u8>, WriteReport)> = chunk
-                    .par_iter()
-                    .map_init(Scratch::new, |scratch, range| {
-                        let mut buf = pool
-                            .lock()
-                            .ok()
-                            .and_then(|mut p| p.pop())
-                            .unwrap_or_else(|| Vec::with_capacity(1 << 21));
-                        let mut r = WriteReport::default();
-                        for linear in range.clone() {
-                            plan.cell_rows(linear, scratch, &mut |row| {
-                                r.objects += 1;
-                                r.stars += row.profile.kind.is_star() as u64;
-                                r.systems += (row.id == row.system) as u64;
-                                format.push_row(&mut buf, row);
-                            });
-                        }
-                        (buf, r)
-                    })
-                    .collect();
-                for (buf, r) in outs {
-                    report.objects += r.objects;
-                    report.stars += r.stars;
-                    report.systems += r.systems;
-                    if tx.send(buf).is_err() {
-                        break;
+                    done += list[next].end - list[next].start;
+                    progress(done, total);
+                    next += 1;
+                    if spawned < list.len() {
+                        spawn(spawned);
+                        spawned += 1;
                     }
                 }
-                done += chunk.iter().map(|r| r.end - r.start).sum::<u64>();
-                progress(done, total);
             }
-            drop(tx);
-            writer
-                .join()
-                .unwrap_or_else(|_| Err(std::io::Error::other("the writer thread failed")))
-        })
+        });
+        result
     })?;
     Ok(report)
 }
