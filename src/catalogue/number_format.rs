@@ -145,6 +145,14 @@ fn append(buf: &mut Vec<u8>, field: &[u8; FIELD], len: usize) {
 #[inline]
 pub fn push_u64(buf: &mut Vec<u8>, v: u64) {
     let n = digit_count(v);
+    if v < POW10_U64[8] {
+        // In a register: drop the leading zeros, store one word.
+        let word = eight_digits(v as u32) >> (8 * (8 - n));
+        let start = buf.len();
+        buf.extend_from_slice(&word.to_le_bytes());
+        buf.truncate(start + n);
+        return;
+    }
     let digits = digits_of(v);
     let start = buf.len();
     buf.extend_from_slice(&digits[DIGITS - n.min(DIGITS)..2 * DIGITS - n.min(DIGITS)]);
@@ -190,6 +198,27 @@ fn format_fixed(field: &mut [u8; FIELD], x: f64, d: usize) -> Option<Laid> {
     let scaled = round_half_away(y);
     let neg = (x < 0.0 && scaled != 0) as usize;
     field[0] = b'-';
+    if scaled < POW10_U64[8] && d <= 7 {
+        // The common case, in registers: at most eight digits and a point
+        // fit one 128-bit word, stored once.
+        let n_digits = digit_count(scaled);
+        let n_int = if n_digits > d { n_digits - d } else { 1 };
+        let total = n_int + d;
+        let word = eight_digits(scaled as u32);
+        let zeros = ((word ^ ZEROS).leading_zeros() / 8) as usize;
+        let digits = (word >> (8 * (8 - total))) as u128;
+        let (text, len) = if d == 0 {
+            (digits, neg + total)
+        } else {
+            let int_mask = (1u128 << (8 * n_int)) - 1;
+            (
+                (digits & int_mask) | ((b'.' as u128) << (8 * n_int)) | ((digits & !int_mask) << 8),
+                neg + total + 1,
+            )
+        };
+        field[neg..neg + 16].copy_from_slice(&text.to_le_bytes());
+        return Some(Laid { len, zeros });
+    }
     let digits = digits_of(scaled);
     let n_digits = digit_count(scaled);
     let n_int = if n_digits > d { n_digits - d } else { 1 };
