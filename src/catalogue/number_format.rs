@@ -497,8 +497,7 @@ mod tests {
     fn digit_words_and_counts_match_the_standard_formatter() {
         // Every value near each power of ten, and a stride through 0..10^8.
         let mut values: Vec<u64> = (0..100_000_000u64).step_by(9_973).collect();
-        for k in 0..20 {
-            let p = POW10_U64[k];
+        for p in POW10_U64 {
             values.extend([p, p - 1, p + 1, p.saturating_mul(7) / 3]);
         }
         values.extend([u64::MAX, u64::MAX - 1, 99_999_999, 12_345_678]);
