@@ -348,16 +348,83 @@ fn add(a: [f64; 3], b: [f64; 3]) -> [f64; 3] {
     [a[0] + b[0], a[1] + b[1], a[2] + b[2]]
 }
 
+/// The linear cell indices of a shard (all cells without one).
+fn shard_cells(total: u64, shard: Option<Shard>) -> std::ops::Range<u64> {
+    match shard {
+        Some(s) => {
+            ((s.index - 1) as u128 * total as u128 / s.count as u128) as u64
+                ..(s.index as u128 * total as u128 / s.count as u128) as u64
+        }
+        None => 0..total,
+    }
+}
+
+/// The part of the shape's volume that falls in the cells of `shard`,
+/// cubic light years: the whole shape's volume without a shard. Cells
+/// whose eight corners lie inside (the shapes are convex) count whole;
+/// cells on the shape's surface are measured by the midpoint rule on an
+/// 8³ grid, so the shards' volumes add up to the shape's within a
+/// fraction of a surface cell each.
+pub fn shard_volume_ly3(spec: &SectorSpec, shard: Option<Shard>) -> f64 {
+    let shape = &spec.shape;
+    if shard.is_none() {
+        return shape.volume_ly3();
+    }
+    let grid = CellGrid::for_spec(spec);
+    let rel = |p: [f64; 3]| sub(p, spec.centre_ly);
+    let cell_volume = CELL_EDGE_LY.powi(3);
+    let sub_n = 8;
+    let mut sum = 0.0;
+    for linear in shard_cells(grid.len(), shard) {
+        let cell = grid.cell(linear);
+        let lo = [
+            cell[0] as f64 * CELL_EDGE_LY,
+            cell[1] as f64 * CELL_EDGE_LY,
+            cell[2] as f64 * CELL_EDGE_LY,
+        ];
+        let hi = [
+            lo[0] + CELL_EDGE_LY,
+            lo[1] + CELL_EDGE_LY,
+            lo[2] + CELL_EDGE_LY,
+        ];
+        if !shape.may_intersect(rel(lo), rel(hi)) {
+            continue;
+        }
+        let inside = (0..8).all(|c| {
+            let corner = [
+                if c & 1 == 0 { lo[0] } else { hi[0] },
+                if c & 2 == 0 { lo[1] } else { hi[1] },
+                if c & 4 == 0 { lo[2] } else { hi[2] },
+            ];
+            shape.contains(rel(corner))
+        });
+        if inside {
+            sum += cell_volume;
+            continue;
+        }
+        let step = CELL_EDGE_LY / sub_n as f64;
+        let mut hits = 0u32;
+        for k in 0..sub_n {
+            for j in 0..sub_n {
+                for i in 0..sub_n {
+                    let p = [
+                        lo[0] + (i as f64 + 0.5) * step,
+                        lo[1] + (j as f64 + 0.5) * step,
+                        lo[2] + (k as f64 + 0.5) * step,
+                    ];
+                    hits += shape.contains(rel(p)) as u32;
+                }
+            }
+        }
+        sum += cell_volume * hits as f64 / (sub_n * sub_n * sub_n) as f64;
+    }
+    sum
+}
+
 /// Cell ranges (batches) of a shard, each expected to hold a few thousand systems.
 fn batches(plan: &SectorPlan, shard: Option<Shard>) -> Vec<std::ops::Range<u64>> {
-    let total = plan.grid.len();
-    let (a, b) = match shard {
-        Some(s) => (
-            ((s.index - 1) as u128 * total as u128 / s.count as u128) as u64,
-            (s.index as u128 * total as u128 / s.count as u128) as u64,
-        ),
-        None => (0, total),
-    };
+    let cells = shard_cells(plan.grid.len(), shard);
+    let (a, b) = (cells.start, cells.end);
     let spec = &plan.spec;
     let peak = spec.density_per_ly3.max(plan.density.at(spec.centre_ly));
     let per_cell = (peak * CELL_EDGE_LY.powi(3) / plan.mean_stars_per_system).max(1e-3);
