@@ -82,7 +82,8 @@ pub struct PopulateArgs {
     pub force: bool,
 }
 
-fn parse_shard(text: &str) -> crate::Result<Shard> {
+/// Parses `--shard K/N` (also the sidecar's `shard`).
+pub(crate) fn parse_shard(text: &str) -> crate::Result<Shard> {
     let bad = || {
         Error::invalid(
             "--shard",

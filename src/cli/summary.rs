@@ -57,11 +57,18 @@ pub fn run(args: SummaryArgs) -> anyhow::Result<ExitCode> {
         let scene = hr_scene(&cat, *theme);
         write_scenes(std::slice::from_ref(&scene), path, *dpi, args.force)?;
     }
-    // The sector's own volume, from the sidecar spec when there is one.
+    // The sector's own volume, from the sidecar spec when there is one;
+    // for a catalogue written with --shard K/N, the shard's part of it.
     let volume = crate::spec::SpecFile::read(&crate::spec::sidecar_path(&args.catalogue))
         .ok()
-        .and_then(|f| f.resolve(0, std::path::Path::new("/")).ok())
-        .map(|s| s.shape.volume_ly3());
+        .and_then(|f| {
+            let shard = f
+                .shard
+                .as_deref()
+                .and_then(|t| super::populate::parse_shard(t).ok());
+            let spec = f.resolve(0, std::path::Path::new("/")).ok()?;
+            Some(crate::sampler::shard_volume_ly3(&spec, shard))
+        });
     let s = crate::report::summarise(&cat, volume);
     if args.json {
         println!("{}", serde_json::to_string_pretty(&s)?);

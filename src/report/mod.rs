@@ -77,17 +77,23 @@ pub fn summarise(cat: &Catalogue, volume_ly3: Option<f64>) -> Summary {
     let points: Vec<[f64; 3]> = ranges.iter().map(|r| cat.position_ly(r.start)).collect();
     let mut nn = nearest_neighbour_distances(&points);
     nn.sort_by(f64::total_cmp);
+    // With fewer than two systems there is no neighbour: 0, not NaN.
+    nn.retain(|d| d.is_finite());
     let mean = if nn.is_empty() {
-        f64::NAN
+        0.0
     } else {
         nn.iter().sum::<f64>() / nn.len() as f64
     };
-    let median = if nn.is_empty() {
-        f64::NAN
-    } else {
-        nn[nn.len() / 2]
+    let median = if nn.is_empty() { 0.0 } else { nn[nn.len() / 2] };
+    // An empty catalogue has no volume of its own: densities are 0 then.
+    let per_volume = |n: u64| {
+        if volume > 0.0 && volume.is_finite() {
+            n as f64 / volume
+        } else {
+            0.0
+        }
     };
-    let n_sys = systems as f64 / volume;
+    let n_sys = per_volume(systems);
     Summary {
         objects: cat.len() as u64,
         stars,
@@ -96,7 +102,7 @@ pub fn summarise(cat: &Catalogue, volume_ly3: Option<f64>) -> Summary {
         by_kind,
         main_sequence_by_class: by_class,
         volume_ly3: volume,
-        star_density_per_ly3: stars as f64 / volume,
+        star_density_per_ly3: per_volume(stars),
         multiplicity_fraction: if systems > 0 {
             multiples as f64 / systems as f64
         } else {
@@ -110,7 +116,11 @@ pub fn summarise(cat: &Catalogue, volume_ly3: Option<f64>) -> Summary {
         habitable_hosts: hab,
         nearest_neighbour_mean_ly: mean,
         nearest_neighbour_median_ly: median,
-        nearest_neighbour_poisson_mean_ly: 0.553_96 * n_sys.powf(-1.0 / 3.0),
+        nearest_neighbour_poisson_mean_ly: if n_sys > 0.0 {
+            0.553_96 * n_sys.powf(-1.0 / 3.0)
+        } else {
+            0.0
+        },
     }
 }
 
@@ -182,6 +192,10 @@ pub fn summary_text(cat: &Catalogue, s: &Summary) -> String {
         "habitable-host candidates (simplified model, for fiction): {}",
         s.habitable_hosts
     );
+    if s.systems < 2 {
+        let _ = writeln!(out, "nearest system: none (fewer than two systems)");
+        return out;
+    }
     let _ = writeln!(
         out,
         "nearest system: mean {:.2} ly, median {:.2} ly (random placement expects a mean of {:.2} ly)",

@@ -348,16 +348,83 @@ fn add(a: [f64; 3], b: [f64; 3]) -> [f64; 3] {
     [a[0] + b[0], a[1] + b[1], a[2] + b[2]]
 }
 
+/// The linear cell indices of a shard (all cells without one).
+fn shard_cells(total: u64, shard: Option<Shard>) -> std::ops::Range<u64> {
+    match shard {
+        Some(s) => {
+            ((s.index - 1) as u128 * total as u128 / s.count as u128) as u64
+                ..(s.index as u128 * total as u128 / s.count as u128) as u64
+        }
+        None => 0..total,
+    }
+}
+
+/// The part of the shape's volume that falls in the cells of `shard`,
+/// cubic light years: the whole shape's volume without a shard. Cells
+/// whose eight corners lie inside (the shapes are convex) count whole;
+/// cells on the shape's surface are measured by the midpoint rule on an
+/// 8³ grid, so the shards' volumes add up to the shape's within a
+/// fraction of a surface cell each.
+pub fn shard_volume_ly3(spec: &SectorSpec, shard: Option<Shard>) -> f64 {
+    let shape = &spec.shape;
+    if shard.is_none() {
+        return shape.volume_ly3();
+    }
+    let grid = CellGrid::for_spec(spec);
+    let rel = |p: [f64; 3]| sub(p, spec.centre_ly);
+    let cell_volume = CELL_EDGE_LY.powi(3);
+    let sub_n = 8;
+    let mut sum = 0.0;
+    for linear in shard_cells(grid.len(), shard) {
+        let cell = grid.cell(linear);
+        let lo = [
+            cell[0] as f64 * CELL_EDGE_LY,
+            cell[1] as f64 * CELL_EDGE_LY,
+            cell[2] as f64 * CELL_EDGE_LY,
+        ];
+        let hi = [
+            lo[0] + CELL_EDGE_LY,
+            lo[1] + CELL_EDGE_LY,
+            lo[2] + CELL_EDGE_LY,
+        ];
+        if !shape.may_intersect(rel(lo), rel(hi)) {
+            continue;
+        }
+        let inside = (0..8).all(|c| {
+            let corner = [
+                if c & 1 == 0 { lo[0] } else { hi[0] },
+                if c & 2 == 0 { lo[1] } else { hi[1] },
+                if c & 4 == 0 { lo[2] } else { hi[2] },
+            ];
+            shape.contains(rel(corner))
+        });
+        if inside {
+            sum += cell_volume;
+            continue;
+        }
+        let step = CELL_EDGE_LY / sub_n as f64;
+        let mut hits = 0u32;
+        for k in 0..sub_n {
+            for j in 0..sub_n {
+                for i in 0..sub_n {
+                    let p = [
+                        lo[0] + (i as f64 + 0.5) * step,
+                        lo[1] + (j as f64 + 0.5) * step,
+                        lo[2] + (k as f64 + 0.5) * step,
+                    ];
+                    hits += shape.contains(rel(p)) as u32;
+                }
+            }
+        }
+        sum += cell_volume * hits as f64 / (sub_n * sub_n * sub_n) as f64;
+    }
+    sum
+}
+
 /// Cell ranges (batches) of a shard, each expected to hold a few thousand systems.
 fn batches(plan: &SectorPlan, shard: Option<Shard>) -> Vec<std::ops::Range<u64>> {
-    let total = plan.grid.len();
-    let (a, b) = match shard {
-        Some(s) => (
-            ((s.index - 1) as u128 * total as u128 / s.count as u128) as u64,
-            (s.index as u128 * total as u128 / s.count as u128) as u64,
-        ),
-        None => (0, total),
-    };
+    let cells = shard_cells(plan.grid.len(), shard);
+    let (a, b) = (cells.start, cells.end);
     let spec = &plan.spec;
     let peak = spec.density_per_ly3.max(plan.density.at(spec.centre_ly));
     let per_cell = (peak * CELL_EDGE_LY.powi(3) / plan.mean_stars_per_system).max(1e-3);
@@ -448,7 +515,9 @@ pub fn write_sector(
     crate::atomic_file::check_target(path, force)?;
     let list = batches(&plan, shard);
     let total: u64 = list.iter().map(|r| r.end - r.start).sum();
-    let group = (rayon::current_num_threads() * 4).max(4);
+    // Batches in flight at once: enough to keep every thread busy while
+    // finished ones wait for their turn to be written.
+    let window = (rayon::current_num_threads() * 4).max(4);
     let mut report = WriteReport::default();
     crate::atomic_file::write_atomic(path, force, |w| {
         let mut head = Vec::new();
@@ -457,63 +526,70 @@ pub fn write_sector(
         }
         w.write_all(&head)?;
         w.flush()?;
-        let mut done = 0u64;
-        // Filled buffers go to the writer thread in order; emptied ones come
-        // back through `pool`, so pages are touched once, not per batch.
+        // Whole buffers go straight to the file, not through the
+        // BufWriter's own buffer (flushed above).
+        let file = w.get_mut();
+        // Emptied buffers are reused, so pages are touched once, not per batch.
         let pool: Mutex<Vec<Vec<u8>>> = Mutex::new(Vec::new());
-        let (tx, rx) = std::sync::mpsc::sync_channel::<Vec<u8>>(group);
-        std::thread::scope(|scope| -> std::io::Result<()> {
-            let pool = &pool;
-            let writer = scope.spawn(move || -> std::io::Result<()> {
-                // Whole buffers go straight to the file, not through the
-                // BufWriter's own buffer (flushed above).
-                let file = w.get_mut();
-                for mut buf in rx {
-                    file.write_all(&buf)?;
+        let (tx, rx) = std::sync::mpsc::channel::<(usize, Vec<u8>, WriteReport)>();
+        let mut result = Ok(());
+        // A sliding window: the pool generates and formats batches while
+        // this thread writes the finished ones in batch order, so neither
+        // waits for the slowest batch of a group.
+        rayon::in_place_scope(|scope| {
+            let (plan, pool, list) = (&plan, &pool, &list);
+            let spawn = |i: usize| {
+                let tx = tx.clone();
+                scope.spawn(move |_| {
+                    let mut scratch = Scratch::new();
+                    let mut buf = pool
+                        .lock()
+                        .ok()
+                        .and_then(|mut p| p.pop())
+                        .unwrap_or_else(|| Vec::with_capacity(1 << 21));
+                    let mut r = WriteReport::default();
+                    for linear in list[i].clone() {
+                        plan.cell_rows(linear, &mut scratch, &mut |row| {
+                            r.objects += 1;
+                            r.stars += row.profile.kind.is_star() as u64;
+                            r.systems += (row.id == row.system) as u64;
+                            format.push_row(&mut buf, row);
+                        });
+                    }
+                    let _ = tx.send((i, buf, r));
+                });
+            };
+            let mut spawned = list.len().min(window);
+            (0..spawned).for_each(spawn);
+            let mut ready = std::collections::BTreeMap::new();
+            let mut next = 0;
+            let mut done = 0u64;
+            while next < list.len() && result.is_ok() {
+                let Ok((i, buf, r)) = rx.recv() else { break };
+                ready.insert(i, (buf, r));
+                while let Some((mut buf, r)) = ready.remove(&next) {
+                    if let Err(e) = file.write_all(&buf) {
+                        result = Err(e);
+                        break;
+                    }
+                    report.objects += r.objects;
+                    report.stars += r.stars;
+                    report.systems += r.systems;
                     buf.clear();
                     if let Ok(mut p) = pool.lock() {
                         p.push(buf);
                     }
-                }
-                Ok(())
-            });
-            for chunk in list.chunks(group) {
-                let outs: Vec<(Vec<u8>, WriteReport)> = chunk
-                    .par_iter()
-                    .map_init(Scratch::new, |scratch, range| {
-                        let mut buf = pool
-                            .lock()
-                            .ok()
-                            .and_then(|mut p| p.pop())
-                            .unwrap_or_else(|| Vec::with_capacity(1 << 21));
-                        let mut r = WriteReport::default();
-                        for linear in range.clone() {
-                            plan.cell_rows(linear, scratch, &mut |row| {
-                                r.objects += 1;
-                                r.stars += row.profile.kind.is_star() as u64;
-                                r.systems += (row.id == row.system) as u64;
-                                format.push_row(&mut buf, row);
-                            });
-                        }
-                        (buf, r)
-                    })
-                    .collect();
-                for (buf, r) in outs {
-                    report.objects += r.objects;
-                    report.stars += r.stars;
-                    report.systems += r.systems;
-                    if tx.send(buf).is_err() {
-                        break;
+                    done += list[next].end - list[next].start;
+                    progress(done, total);
+                    next += 1;
+                    if spawned < list.len() {
+                        spawn(spawned);
+                        spawned += 1;
                     }
                 }
-                done += chunk.iter().map(|r| r.end - r.start).sum::<u64>();
-                progress(done, total);
             }
-            drop(tx);
-            writer
-                .join()
-                .unwrap_or_else(|_| Err(std::io::Error::other("the writer thread failed")))
-        })
+        });
+        result
     })?;
     Ok(report)
 }

@@ -18,5 +18,6 @@ mod sector_determinism;
 mod sector_reader;
 mod sector_spec;
 mod sector_tiling;
+mod summary_edges;
 mod tidy;
 mod util;
