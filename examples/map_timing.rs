@@ -12,6 +12,15 @@
 //! Without a catalogue argument one is generated once into the target
 //! folder and reused. With `RUNS` above 1 the catalogue is read once and
 //! the drawing stages run `RUNS` times; the best and the median are shown.
+//!
+//! Figures for a 1 289 414-row catalogue (942 652 systems) on the 2
+//! cores, idle at the time (load average 0.0-0.3, 2 December 2026), one
+//! run each as the command runs: before the band pipeline, build sheet
+//! 192 ms and write PNG (rasterise + encode + write) 268 ms, 460 ms in
+//! all; after, build sheet 173 ms, draw + encode PNG 151 ms, write file
+//! 13 ms, 337 ms in all (PNG 7.4 MB). Under load from other sessions'
+//! builds (load average 1-2) the same stages took 180-220, 150-170 and
+//! 6-13 ms.
 
 use starloom::map::{MapOptions, build_sheets};
 use starloom::render::overlay::Overlay;
