@@ -166,6 +166,24 @@ pub fn place_labels(
     area: Rect,
     budget: usize,
 ) -> Vec<Placed> {
+    place_labels_insisting(requests, 0, obstacles, area, budget)
+}
+
+/// As [`place_labels`], but the first `insist` requests (the stars the
+/// user asked about, such as a route's ends) may cover other stars'
+/// markers when no free place is left around them.
+///
+/// # Guarantees
+/// No two returned boxes overlap; every box lies inside `area`; no box
+/// overlaps an obstacle; only the first `insist` requests' boxes may
+/// overlap other stars' markers.
+pub fn place_labels_insisting(
+    requests: &[LabelRequest],
+    insist: usize,
+    obstacles: &[Rect],
+    area: Rect,
+    budget: usize,
+) -> Vec<Placed> {
     let mut blocked = Grid {
         cells: HashMap::new(),
     };
@@ -197,9 +215,17 @@ pub fn place_labels(
         if !(r.width_mm > 0.0 && r.height_mm > 0.0 && r.anchor_mm.iter().all(|v| v.is_finite())) {
             continue;
         }
-        let found = candidates(r).into_iter().find(|c| {
-            area.contains(c) && !placed_grid.hits(c) && !blocked.hits(c) && !markers.hits(c)
-        });
+        let cands = candidates(r);
+        let free = |c: &Rect| area.contains(c) && !placed_grid.hits(c) && !blocked.hits(c);
+        let found = cands
+            .iter()
+            .find(|c| free(c) && !markers.hits(c))
+            .or_else(|| {
+                (i < insist)
+                    .then(|| cands.iter().find(|c| free(c)))
+                    .flatten()
+            })
+            .copied();
         if let Some(rect) = found {
             placed_grid.insert(rect);
             placed.push(Placed { request: i, rect });
@@ -240,6 +266,28 @@ mod tests {
         // Near the right edge a label moves to the left of its star.
         let p = place_labels(&[r(97.0)], &[], Rect::new(0.0, 0.0, 100.0, 100.0), 3);
         assert!(p[0].rect.x1 <= 97.0);
+    }
+
+    #[test]
+    fn an_insisted_label_may_cover_neighbouring_stars() {
+        // A star ringed by others closer than its label is wide.
+        let req = |x: f32, y: f32| LabelRequest {
+            anchor_mm: [x, y],
+            radius_mm: 0.5,
+            width_mm: 8.0,
+            height_mm: 3.0,
+        };
+        let mut reqs = vec![req(50.0, 50.0)];
+        for k in 0..16 {
+            let a = k as f32 * std::f32::consts::PI / 8.0;
+            reqs.push(req(50.0 + 3.0 * a.cos(), 50.0 + 3.0 * a.sin()));
+        }
+        let area = Rect::new(0.0, 0.0, 100.0, 100.0);
+        let plain = place_labels(&reqs, &[], area, 1);
+        assert!(plain.iter().all(|p| p.request != 0), "{plain:?}");
+        let insisted = place_labels_insisting(&reqs, 1, &[], area, 1);
+        assert_eq!(insisted.len(), 1);
+        assert_eq!(insisted[0].request, 0);
     }
 
     proptest! {

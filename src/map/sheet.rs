@@ -11,7 +11,7 @@
 use crate::catalogue::Catalogue;
 use crate::catalogue::table::Origin;
 use crate::error::{Error, Result};
-use crate::map::labels::{LabelRequest, Rect, place_labels};
+use crate::map::labels::{LabelRequest, Rect, place_labels_insisting};
 use crate::map::layout::{
     Frame, GAP_MM, MARGIN_MM, OVERLAP_MM, PANEL_COLUMN_MM, TILE_MARGIN_MM, Tiling, clip_polyline,
     clip_segment, sheet_layout,
@@ -813,38 +813,52 @@ impl Ctx<'_> {
             let l = cat.luminosity_lsun[self.systems[v.sys as usize].look as usize];
             if l.is_nan() { 1.0 } else { l }
         };
-        let mut order: Vec<usize> = (0..vis.len())
-            .filter(|&i| {
-                let s = &self.systems[vis[i].sys as usize];
-                !cat.name[s.row as usize].is_empty()
-                    && (mode != LabelMode::Habitable || s.habitable)
+        // Candidates with their sort keys, gathered in parallel (order
+        // kept); the few brightest are then picked and sorted.
+        let mut keyed: Vec<(f64, u32, u32)> = vis
+            .par_iter()
+            .enumerate()
+            .filter_map(|(i, v)| {
+                let s = &self.systems[v.sys as usize];
+                let wanted = !cat.name[s.row as usize].is_empty()
+                    && (mode != LabelMode::Habitable || s.habitable);
+                wanted.then(|| (lum(v), v.sys, i as u32))
             })
             .collect();
         let keep = budget.saturating_mul(6).min(50_000);
+        let by_key =
+            |a: &(f64, u32, u32), b: &(f64, u32, u32)| b.0.total_cmp(&a.0).then(a.1.cmp(&b.1));
+        if keyed.len() > keep {
+            keyed.select_nth_unstable_by(keep, by_key);
+            keyed.truncate(keep);
+        }
+        keyed.sort_by(by_key);
+        let mut order: Vec<usize> = keyed.iter().map(|k| k.2 as usize).collect();
         let by_lum = |a: &usize, b: &usize| {
             lum(&vis[*b])
                 .total_cmp(&lum(&vis[*a]))
                 .then(vis[*a].sys.cmp(&vis[*b].sys))
         };
-        if order.len() > keep {
-            order.select_nth_unstable_by(keep, by_lum);
-            order.truncate(keep);
-        }
-        order.sort_by(by_lum);
-        // Route stops first.
+        // Route stops first, its two ends before the rest: the ends are
+        // what the user asked about, so they are labelled even where
+        // that covers neighbouring stars.
+        let mut insist = 0;
         if !self.overlay.route.is_empty() {
-            let stops: std::collections::HashSet<usize> =
-                self.overlay.route.iter().copied().collect();
-            let (mut first, rest): (Vec<usize>, Vec<usize>) = order
-                .into_iter()
-                .partition(|&i| stops.contains(&(self.systems[vis[i].sys as usize].row as usize)));
-            let extra: Vec<usize> = (0..vis.len())
-                .filter(|&i| {
-                    stops.contains(&(self.systems[vis[i].sys as usize].row as usize))
-                        && !first.contains(&i)
-                })
+            let route = &self.overlay.route;
+            let ends = [route[0], route[route.len() - 1]];
+            let stops: std::collections::HashSet<usize> = route.iter().copied().collect();
+            let row_of = |i: usize| self.systems[vis[i].sys as usize].row as usize;
+            let mut first: Vec<usize> = (0..vis.len())
+                .filter(|&i| ends.contains(&row_of(i)))
                 .collect();
-            first.extend(extra);
+            first.sort_by_key(|&i| (ends.iter().position(|&e| e == row_of(i)), vis[i].sys));
+            insist = first.len();
+            let mut middle: Vec<usize> = (0..vis.len())
+                .filter(|&i| stops.contains(&row_of(i)) && !ends.contains(&row_of(i)))
+                .collect();
+            middle.sort_by(by_lum);
+            let rest = order.into_iter().filter(|&i| !stops.contains(&row_of(i)));
+            first.extend(middle);
             first.extend(rest);
             order = first;
         }
@@ -872,7 +886,7 @@ impl Ctx<'_> {
                 }
             })
             .collect();
-        place_labels(&requests, &[], rect.inflate(-0.5), budget)
+        place_labels_insisting(&requests, insist, &[], rect.inflate(-0.5), budget)
             .into_iter()
             .map(|p| (vis[order[p.request]], p.rect))
             .collect()

@@ -34,7 +34,10 @@ pub const BAND_ROWS: u32 = 128;
 pub const MAX_RASTER_BYTES: u64 = 1_500_000_000;
 
 /// Stars with a radius above this many pixels are drawn as vector discs.
-pub const SPRITE_MAX_RADIUS_PX: f32 = 6.0;
+/// Up to it they are stamped from sprites: at most
+/// 16 × 8 radius steps × 16 phases, each at most 37 × 37 px, made only
+/// for the (step, phase) pairs a page uses.
+pub const SPRITE_MAX_RADIUS_PX: f32 = 16.0;
 
 /// Radius steps per pixel for star sprites.
 const RADIUS_STEPS_PER_PX: f32 = 8.0;
@@ -65,25 +68,81 @@ pub fn check_raster_size(width: u32, height: u32, dpi: f32) -> Result<()> {
 /// Draws `scene` at `dpi` dots per inch into a new premultiplied RGBA
 /// pixmap. Refuses a page that would not fit in memory.
 pub fn rasterise(scene: &Scene, dpi: f32) -> Result<Pixmap> {
-    let (w, h) = raster_size_px(scene, dpi);
-    check_raster_size(w, h, dpi)?;
+    let bands = BandRaster::new(scene, dpi)?;
+    let (w, h) = (bands.width(), bands.height());
     let mut pixmap = Pixmap::new(w, h).ok_or_else(|| {
         Error::TooLarge(format!(
             "a {w} × {h} pixel sheet cannot be allocated; lower --dpi"
         ))
     })?;
-    let prepared = Prepared::new(scene, dpi, h);
     let band_bytes = (BAND_ROWS * w * 4) as usize;
     pixmap
         .data_mut()
         .par_chunks_mut(band_bytes)
         .enumerate()
-        .for_each(|(band, bytes)| {
-            let rows = (bytes.len() / (w as usize * 4)) as u32;
-            let mut pm = PixmapMut::from_bytes(bytes, w, rows).expect("band size");
-            prepared.draw_band(&mut pm, band, band as u32 * BAND_ROWS);
-        });
+        .for_each(|(band, bytes)| bands.draw_into(band, bytes));
     Ok(pixmap)
+}
+
+/// A scene prepared for drawing one band of [`BAND_ROWS`] pixel rows at
+/// a time, so that a caller can turn each band into output (PNG rows)
+/// while it is still in the cache, without keeping the whole page.
+///
+/// # Guarantees
+/// A band's pixels depend only on the scene, the resolution and the
+/// band's index, never on the order or the thread the bands are drawn in.
+#[allow(missing_debug_implementations)]
+pub struct BandRaster<'a> {
+    prepared: Prepared<'a>,
+    width: u32,
+    height: u32,
+}
+
+impl<'a> BandRaster<'a> {
+    /// Prepares `scene` at `dpi` (pixel positions, star bins and sprites).
+    /// Refuses a page that would not fit in memory.
+    pub fn new(scene: &'a Scene, dpi: f32) -> Result<BandRaster<'a>> {
+        let (width, height) = raster_size_px(scene, dpi);
+        check_raster_size(width, height, dpi)?;
+        Ok(BandRaster {
+            prepared: Prepared::new(scene, dpi, height),
+            width,
+            height,
+        })
+    }
+
+    /// Page width, pixels.
+    pub fn width(&self) -> u32 {
+        self.width
+    }
+
+    /// Page height, pixels.
+    pub fn height(&self) -> u32 {
+        self.height
+    }
+
+    /// Number of bands (the last may have fewer than [`BAND_ROWS`] rows).
+    pub fn bands(&self) -> usize {
+        self.height.div_ceil(BAND_ROWS) as usize
+    }
+
+    /// Pixel rows of band `band`.
+    pub fn band_rows(&self, band: usize) -> u32 {
+        let y0 = band as u32 * BAND_ROWS;
+        BAND_ROWS.min(self.height.saturating_sub(y0))
+    }
+
+    /// Draws band `band` into `bytes`: premultiplied RGBA, row by row,
+    /// exactly `band_rows(band) × width × 4` bytes.
+    ///
+    /// # Panics
+    /// When `bytes` has another length.
+    pub fn draw_into(&self, band: usize, bytes: &mut [u8]) {
+        let rows = self.band_rows(band);
+        let mut pm = PixmapMut::from_bytes(bytes, self.width, rows).expect("band size");
+        self.prepared
+            .draw_band(&mut pm, band, band as u32 * BAND_ROWS);
+    }
 }
 
 /// A page with its per-item bounds and star bins, ready to draw by band.
@@ -113,6 +172,9 @@ struct Sprite {
     half: i32,
     fill: Vec<u8>,
     stroke: Vec<u8>,
+    /// Per row, the columns `start..end` where the fill or the outline
+    /// covers anything (empty rows have `start == end`).
+    spans: Vec<(u16, u16)>,
 }
 
 fn radius_step(r_px: f32) -> usize {
@@ -145,7 +207,7 @@ fn make_sprite(step: usize, px: usize, py: usize, outline_px: f32) -> Sprite {
         Transform::identity(),
         None,
     );
-    let fill = pm.pixels().iter().map(|p| p.alpha()).collect();
+    let fill: Vec<u8> = pm.pixels().iter().map(|p| p.alpha()).collect();
     let stroke = if outline_px > 0.0 {
         let mut pm = Pixmap::new(size as u32, size as u32).expect("sprite size");
         let st = tiny_skia::Stroke {
@@ -157,11 +219,27 @@ fn make_sprite(step: usize, px: usize, py: usize, outline_px: f32) -> Sprite {
     } else {
         Vec::new()
     };
+    let spans = (0..size)
+        .map(|y| {
+            let covered = |x: &usize| {
+                let i = y * size + x;
+                fill[i] != 0 || stroke.get(i).is_some_and(|&c| c != 0)
+            };
+            match (0..size).find(covered) {
+                Some(a) => {
+                    let b = (0..size).rev().find(covered).unwrap_or(a);
+                    (a as u16, b as u16 + 1)
+                }
+                None => (0, 0),
+            }
+        })
+        .collect();
     Sprite {
         size,
         half,
         fill,
         stroke,
+        spans,
     }
 }
 
@@ -385,26 +463,87 @@ impl StarLayer {
             };
             let ox = ix as i32 - sp.half;
             let oy = iy as i32 - sp.half - y0 as i32;
-            stamp(data, w, h, ox, oy, sp.size, &sp.fill, color);
-            if self.outline_px > 0.0
-                && let Some(o) = outline
-            {
-                stamp(data, w, h, ox, oy, sp.size, &sp.stroke, o.color);
+            let stroke = if self.outline_px > 0.0 {
+                outline.map(|o| o.color)
+            } else {
+                None
+            };
+            stamp_sprite(data, w, h, ox, oy, sp, color, stroke);
+        }
+    }
+}
+
+/// Stamps a star sprite with its top-left corner at (`ox`, `oy`): the
+/// fill in `fill`, then the outline in `stroke`, source-over,
+/// premultiplied; only the covered span of each row is visited. Same
+/// pixels as blending the two masks one after the other.
+#[allow(clippy::too_many_arguments)]
+fn stamp_sprite(
+    data: &mut [u8],
+    w: i32,
+    h: i32,
+    ox: i32,
+    oy: i32,
+    sp: &Sprite,
+    fill: Rgba,
+    stroke: Option<Rgba>,
+) {
+    let size = sp.size as i32;
+    let ya = oy.max(0);
+    let yb = (oy + size).min(h);
+    if ya >= yb || ox >= w || ox + size <= 0 {
+        return;
+    }
+    let stroke = stroke.filter(|c| c.a != 0 && !sp.stroke.is_empty());
+    let fill_on = fill.a != 0;
+    for y in ya..yb {
+        let my = (y - oy) as usize;
+        let (s0, s1) = sp.spans[my];
+        let xa = (ox + i32::from(s0)).max(0);
+        let xb = (ox + i32::from(s1)).min(w);
+        if xa >= xb {
+            continue;
+        }
+        let mrow = my * sp.size;
+        let drow = (y * w) as usize * 4;
+        for x in xa..xb {
+            let m = mrow + (x - ox) as usize;
+            let d: &mut [u8; 4] = (&mut data[drow + x as usize * 4..drow + x as usize * 4 + 4])
+                .try_into()
+                .expect("four bytes");
+            if fill_on {
+                blend_px(d, fill, sp.fill[m]);
+            }
+            if let Some(sc) = stroke {
+                blend_px(d, sc, sp.stroke[m]);
             }
         }
     }
 }
 
+/// Source-over blend of one premultiplied pixel with a straight-alpha
+/// colour at coverage `c`; a fully covered opaque colour is a plain copy
+/// (the general formula gives the same bytes).
+#[inline(always)]
+fn blend_px(d: &mut [u8; 4], color: Rgba, c: u8) {
+    if c == 0 {
+        return;
+    }
+    if c == 255 && color.a == 255 {
+        *d = [color.r, color.g, color.b, 255];
+        return;
+    }
+    let sa = div255(u32::from(color.a) * u32::from(c));
+    let inv = 255 - sa;
+    d[0] = (div255(u32::from(color.r) * sa) + div255(u32::from(d[0]) * inv)) as u8;
+    d[1] = (div255(u32::from(color.g) * sa) + div255(u32::from(d[1]) * inv)) as u8;
+    d[2] = (div255(u32::from(color.b) * sa) + div255(u32::from(d[2]) * inv)) as u8;
+    d[3] = (sa + div255(u32::from(d[3]) * inv)) as u8;
+}
+
 #[inline]
 fn div255(x: u32) -> u32 {
     (x + 128 + ((x + 128) >> 8)) >> 8
-}
-
-/// Blends `color` through a coverage mask of `size` × `size` pixels with
-/// its top-left corner at (`ox`, `oy`), source-over, premultiplied.
-#[allow(clippy::too_many_arguments)]
-fn stamp(data: &mut [u8], w: i32, h: i32, ox: i32, oy: i32, size: usize, cov: &[u8], color: Rgba) {
-    blend_mask(data, w, h, ox, oy, size, size, cov, color);
 }
 
 /// Source-over blend of a straight-alpha colour through a coverage mask.
@@ -427,27 +566,15 @@ fn blend_mask(
     if x0 >= x1 || y0 >= y1 || color.a == 0 {
         return;
     }
-    let (r, g, b, a) = (
-        u32::from(color.r),
-        u32::from(color.g),
-        u32::from(color.b),
-        u32::from(color.a),
-    );
     for y in y0..y1 {
         let mrow = ((y - oy) as usize) * mw;
         let drow = (y * w) as usize * 4;
         for x in x0..x1 {
-            let c = u32::from(cov[mrow + (x - ox) as usize]);
-            if c == 0 {
-                continue;
-            }
-            let sa = div255(a * c);
-            let inv = 255 - sa;
-            let d = &mut data[drow + x as usize * 4..drow + x as usize * 4 + 4];
-            d[0] = (div255(r * sa) + div255(u32::from(d[0]) * inv)) as u8;
-            d[1] = (div255(g * sa) + div255(u32::from(d[1]) * inv)) as u8;
-            d[2] = (div255(b * sa) + div255(u32::from(d[2]) * inv)) as u8;
-            d[3] = (sa + div255(u32::from(d[3]) * inv)) as u8;
+            let c = cov[mrow + (x - ox) as usize];
+            let d: &mut [u8; 4] = (&mut data[drow + x as usize * 4..drow + x as usize * 4 + 4])
+                .try_into()
+                .expect("four bytes");
+            blend_px(d, color, c);
         }
     }
 }

@@ -304,3 +304,46 @@ fn route_overlay_is_drawn_under_labels() {
         .count();
     assert!(lines >= 1, "the route is one polyline through three stops");
 }
+
+#[test]
+fn route_ends_are_labelled_on_a_crowded_sheet() {
+    // The same tight cluster; the route runs between two faint stars
+    // near its middle, where every free place is taken by neighbours.
+    let mut c = Catalogue::default();
+    for i in 0..400u64 {
+        let a = i as f64 * 2.399_963;
+        let r = (i as f64).sqrt() * 1.5;
+        c.push(row(
+            i + 1,
+            &format!("Long-named system {i}"),
+            [r * a.cos(), r * a.sin(), 0.0],
+            if i == 3 || i == 9 { 0.2 } else { 1.2 },
+            KindChoice::Auto,
+        ));
+    }
+    let labels = |overlay: &Overlay| -> Vec<String> {
+        let s = build_sheets(&c, &bare(), overlay).unwrap();
+        s.sheets[0]
+            .scene
+            .items
+            .iter()
+            .filter_map(|i| match i {
+                Item::Text { text, .. } if text.starts_with("Long-named") => Some(text.clone()),
+                _ => None,
+            })
+            .collect()
+    };
+    let plain = labels(&Overlay::default());
+    let ends = ["Long-named system 3", "Long-named system 9"];
+    assert!(
+        ends.iter().any(|e| !plain.iter().any(|t| t == e)),
+        "without a route the faint inner stars go unlabelled"
+    );
+    let routed = labels(&Overlay {
+        links: Vec::new(),
+        route: vec![3, 5, 9],
+    });
+    for e in ends {
+        assert!(routed.iter().any(|t| t == e), "{e} is unlabelled");
+    }
+}

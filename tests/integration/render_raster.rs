@@ -204,3 +204,86 @@ fn golden_star_field() {
     // 40 × 30 mm at 200 dpi: 315 × 236 px.
     check_golden("star_field", &busy_scene(600, 40.0, 30.0), 200.0);
 }
+
+/// Decodes PNG bytes: size, colour type, pHYs and the pixels.
+fn decode_full(
+    bytes: &[u8],
+) -> (
+    u32,
+    u32,
+    png::ColorType,
+    Option<png::PixelDimensions>,
+    Vec<u8>,
+) {
+    let mut reader = png::Decoder::new(std::io::Cursor::new(bytes))
+        .read_info()
+        .unwrap();
+    let dims = reader.info().pixel_dims;
+    let mut buf = vec![0; reader.output_buffer_size().unwrap()];
+    let info = reader.next_frame(&mut buf).unwrap();
+    buf.truncate(info.buffer_size());
+    (info.width, info.height, info.color_type, dims, buf)
+}
+
+#[test]
+fn band_pipeline_png_decodes_to_the_rasterised_pixels() {
+    // 60 × 90 mm at 200 dpi: 472 × 709 px, six bands (the last partial),
+    // so band seams and the Sub/Up filter switch are all crossed.
+    let scene = busy_scene(20_000, 60.0, 90.0);
+    let dpi = 200.0;
+    let pixmap = rasterise(&scene, dpi).unwrap();
+    let expected: Vec<u8> = pixmap
+        .data()
+        .chunks_exact(4)
+        .flat_map(|p| [p[0], p[1], p[2]])
+        .collect();
+    let run = |threads| {
+        rayon::ThreadPoolBuilder::new()
+            .num_threads(threads)
+            .build()
+            .unwrap()
+            .install(|| starloom::render::output::png_bytes(&scene, dpi).unwrap())
+    };
+    let one = run(1);
+    let two = run(2);
+    assert!(one == two, "PNG bytes differ between 1 and 2 threads");
+    let (w, h, color, dims, pixels) = decode_full(&one);
+    assert_eq!((w, h, color), (472, 709, png::ColorType::Rgb));
+    // 200 dpi = 200 / 0.0254 px per metre = 7874.0157 → 7874.
+    let dims = dims.expect("a pHYs chunk");
+    assert_eq!(
+        (dims.xppu, dims.yppu, dims.unit),
+        (7874, 7874, png::Unit::Meter)
+    );
+    assert!(pixels == expected, "decoded PNG differs from the pixmap");
+    // Encoding a pixmap drawn whole gives the same file.
+    let mut again = Vec::new();
+    starloom::render::output::encode_png(&pixmap, dpi, &mut again).unwrap();
+    assert!(again == one, "encode_png and png_bytes differ");
+}
+
+#[test]
+fn translucent_page_round_trips_as_straight_rgba() {
+    let mut scene = busy_scene(300, 20.0, 25.0);
+    scene.background = Rgba {
+        r: 0,
+        g: 0,
+        b: 0,
+        a: 0,
+    };
+    let pixmap = rasterise(&scene, 200.0).unwrap();
+    let bytes = starloom::render::output::png_bytes(&scene, 200.0).unwrap();
+    let (w, h, color, _, pixels) = decode_full(&bytes);
+    assert_eq!((w, h), (pixmap.width(), pixmap.height()));
+    assert_eq!(color, png::ColorType::Rgba);
+    // Premultiplied → straight alpha as tiny-skia's own demultiply does it.
+    for (p, q) in pixmap.pixels().iter().zip(pixels.chunks_exact(4)) {
+        let c = p.demultiply();
+        assert_eq!(q[3], c.alpha());
+        if c.alpha() != 0 {
+            for (a, b) in [(q[0], c.red()), (q[1], c.green()), (q[2], c.blue())] {
+                assert!(a.abs_diff(b) <= 1, "{a} vs {b}");
+            }
+        }
+    }
+}
