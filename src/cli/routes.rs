@@ -163,10 +163,13 @@ pub fn run(args: RoutesArgs) -> anyhow::Result<ExitCode> {
     for out in [&args.out, &args.lanes_out].into_iter().flatten() {
         crate::atomic_file::check_target(out, args.force)?;
     }
-    let cat = crate::catalogue::reader::read_catalogue_columns(
-        &args.catalogue,
-        crate::routes::CATALOGUE_COLUMNS,
-    )?;
+    // Names and kinds serve only a route (its ends, --avoid, the stops).
+    let columns = if request.is_some() {
+        crate::routes::CATALOGUE_COLUMNS
+    } else {
+        crate::catalogue::reader::Columns::POSITIONS
+    };
+    let cat = crate::catalogue::reader::read_catalogue_columns(&args.catalogue, columns)?;
     let systems = Systems::from_catalogue(&cat);
     let ends = match &request {
         Some(r) => {

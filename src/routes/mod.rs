@@ -28,8 +28,9 @@ pub use jump_graph::{JumpNetwork, Link, NetworkSummary, SpanningForest};
 pub use route_search::{Route, RouteBy, connecting_jump_ly, shortest_route};
 pub use spatial_index::{SpatialIndex, distance_ly};
 
-/// The catalogue columns routes use (besides ids, systems and positions),
-/// for [`crate::catalogue::reader::read_catalogue_columns`].
+/// The catalogue columns a route uses (besides ids, systems and
+/// positions), for [`crate::catalogue::reader::read_catalogue_columns`];
+/// the network, regions and lanes need only positions.
 pub const CATALOGUE_COLUMNS: crate::catalogue::reader::Columns =
     crate::catalogue::reader::Columns::NAME.with(crate::catalogue::reader::Columns::KIND);
 
