@@ -347,3 +347,36 @@ fn route_ends_are_labelled_on_a_crowded_sheet() {
         assert!(routed.iter().any(|t| t == e), "{e} is unlabelled");
     }
 }
+
+/// A sheet drawn from a catalogue read with only the map's columns is the
+/// same as one drawn from the full read, for every label mode (so the map
+/// never looks at a column it does not ask the reader for).
+#[test]
+fn the_map_columns_are_all_a_sheet_needs() {
+    use starloom::catalogue::reader::{read_catalogue, read_catalogue_columns};
+    use starloom::map::LabelMode;
+    let dir = std::env::temp_dir().join(format!("starloom-mapcols-{}", std::process::id()));
+    std::fs::create_dir_all(&dir).unwrap();
+    let path = dir.join("sector.csv");
+    let spec = starloom::spec::SectorSpec::new(
+        41,
+        starloom::spec::Shape::Sphere { radius_ly: 25.0 },
+        [0.0; 3],
+    );
+    let cat = starloom::sampler::generate(&spec, &|_, _| {}).unwrap();
+    starloom::catalogue::writer::write_catalogue(&cat, &path, true).unwrap();
+    let full = read_catalogue(&path).unwrap();
+    let part = read_catalogue_columns(&path, starloom::map::CATALOGUE_COLUMNS).unwrap();
+    for label in [LabelMode::Bright, LabelMode::Habitable, LabelMode::All] {
+        let opts = MapOptions {
+            labels: label,
+            ..MapOptions::default()
+        };
+        let svg = |c: &Catalogue| {
+            let sheets = build_sheets(c, &opts, &Overlay::default()).unwrap();
+            starloom::render::svg::svg_string(&sheets.sheets[0].scene)
+        };
+        assert_eq!(svg(&full), svg(&part), "{label:?}");
+    }
+    std::fs::remove_dir_all(&dir).ok();
+}
