@@ -119,6 +119,17 @@ pub fn bc_v_dwarf_table(teff_k: f64) -> f64 {
     dwarf_table_between(rows.buckets.count(&rows.teff_k, |v, x| v >= x, t), t)
 }
 
+/// The interpolation of [`dwarf_table_between`] with each interval's
+/// slope worked out once: row `i − 1` (hotter) to row `i`.
+struct DwarfInterval {
+    /// Teff of the cooler row, K.
+    cool_teff_k: f64,
+    /// BC_V of the cooler row, or of the hotter row where the cooler has none.
+    cool_bc_v: f64,
+    /// dBC_V/dTeff over the interval, per kelvin (0 where the cooler row has no BC_V).
+    slope_per_k: f64,
+}
+
 /// [`bc_v_dwarf_table`] by a binary search over the rows: the reference the
 /// bucket lookup is tested against.
 pub fn bc_v_dwarf_table_by_search(teff_k: f64) -> f64 {
@@ -135,24 +146,23 @@ fn clamp_dwarf_teff(teff_k: f64) -> f64 {
 
 /// Linear interpolation between row `i − 1` (hotter) and row `i`, where
 /// `i` is the number of rows at least as hot as `t`.
+///
+/// Each interval's slope is precomputed ([`DwarfInterval`]), so a lookup
+/// costs one multiplication and no division.
 fn dwarf_table_between(i: usize, t: f64) -> f64 {
-    if i == 0 {
-        return DWARF_SEQUENCE[0].bc_v;
-    }
-    let hot = &DWARF_SEQUENCE[i - 1];
-    match DWARF_SEQUENCE.get(i) {
-        Some(cool) if cool.bc_v.is_finite() => {
-            let w = (t - cool.teff_k) / (hot.teff_k - cool.teff_k);
-            cool.bc_v + w * (hot.bc_v - cool.bc_v)
-        }
-        _ => hot.bc_v,
+    match DWARF_ROWS.intervals.get(i) {
+        Some(interval) => interval.cool_bc_v + (t - interval.cool_teff_k) * interval.slope_per_k,
+        None => DWARF_SEQUENCE[DWARF_SEQUENCE.len() - 1].bc_v,
     }
 }
 
-/// The Teff column of the dwarf table and its bucket index.
+/// The Teff column of the dwarf table, its bucket index and the
+/// interpolation intervals (entry `i` ends at row `i`; entry 0 is the hot
+/// end, constant).
 struct DwarfRows {
     teff_k: [f64; DWARF_SEQUENCE.len()],
     buckets: TeffBuckets,
+    intervals: [DwarfInterval; DWARF_SEQUENCE.len()],
 }
 
 static DWARF_ROWS: LazyLock<DwarfRows> = LazyLock::new(|| {
@@ -160,6 +170,30 @@ static DWARF_ROWS: LazyLock<DwarfRows> = LazyLock::new(|| {
     DwarfRows {
         buckets: TeffBuckets::new(&teff_k, |v, x| v >= x),
         teff_k,
+        intervals: std::array::from_fn(|i| {
+            let cool = &DWARF_SEQUENCE[i];
+            if i == 0 {
+                return DwarfInterval {
+                    cool_teff_k: cool.teff_k,
+                    cool_bc_v: cool.bc_v,
+                    slope_per_k: 0.0,
+                };
+            }
+            let hot = &DWARF_SEQUENCE[i - 1];
+            if cool.bc_v.is_finite() {
+                DwarfInterval {
+                    cool_teff_k: cool.teff_k,
+                    cool_bc_v: cool.bc_v,
+                    slope_per_k: (hot.bc_v - cool.bc_v) / (hot.teff_k - cool.teff_k),
+                }
+            } else {
+                DwarfInterval {
+                    cool_teff_k: cool.teff_k,
+                    cool_bc_v: hot.bc_v,
+                    slope_per_k: 0.0,
+                }
+            }
+        }),
     }
 });
 
