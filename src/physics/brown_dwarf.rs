@@ -15,7 +15,7 @@
 //!   than a star of the same mass (about 1.4 dex at 4.6 Gyr): the
 //!   hydrogen-burning limit is a real jump, not a fitting artefact.
 
-use super::constants::R_JUPITER_PER_R_SUN;
+use super::constants::{R_JUPITER_PER_R_SUN, TEFF_SUN_K};
 
 /// Mass range of brown dwarfs, Msun.
 pub const MASS_RANGE_MSUN: (f64, f64) = (0.013, 0.075);
@@ -39,6 +39,29 @@ pub fn luminosity_and_log10(mass_msun: f64, age_gyr: f64) -> (f64, f64) {
     )
 }
 
+/// Luminosity (Lsun) with its log10, radius (Rsun) and Teff (K) of a
+/// brown dwarf of this mass (Msun) and age (Gyr).
+///
+/// Teff = 5772 K · L^(1/4) · R^(-1/2) (Stefan–Boltzmann in nominal solar
+/// units) is taken as 5772 K · (4e-5)^(1/4) · exp(x/4) / √R with
+/// x = ln(L / 4e-5), an exponential that does not wait for L; it differs
+/// from the formula applied to L and R by rounding only (tested).
+#[inline]
+pub fn photosphere(mass_msun: f64, age_gyr: f64) -> (f64, f64, f64, f64) {
+    /// log10(4e-5), to the last bit (a test checks it).
+    const LOG10_NORMALISATION: f64 = -4.397_940_008_672_037_5;
+    /// 5772 K · (4e-5)^(1/4) (a test checks it).
+    const TEFF_SCALE_K: f64 = TEFF_SUN_K * 0.079_527_072_876_705_07;
+    let x = cooling_exponent(mass_msun, age_gyr);
+    let r = radius_rsun(age_gyr);
+    (
+        4e-5 * x.exp(),
+        LOG10_NORMALISATION + x * std::f64::consts::LOG10_E,
+        r,
+        TEFF_SCALE_K * (0.25 * x).exp() / r.sqrt(),
+    )
+}
+
 /// ln(L / 4e-5 Lsun) of the cooling law.
 fn cooling_exponent(mass_msun: f64, age_gyr: f64) -> f64 {
     let t = age_gyr.max(MIN_AGE_GYR);
@@ -55,6 +78,21 @@ pub fn radius_rsun(age_gyr: f64) -> f64 {
 mod tests {
     use super::*;
     use crate::physics::effective_temperature::teff_k;
+
+    #[test]
+    fn photosphere_is_stefan_boltzmann() {
+        assert_eq!(0.079_527_072_876_705_07, 4e-5f64.powf(0.25));
+        for i in 0..=200 {
+            let m = 0.013 + 0.062 * i as f64 / 200.0;
+            for age in [0.0, 1e-3, 0.01, 0.3, 1.0, 5.0, 13.8] {
+                let (l, log10_l, r, t) = photosphere(m, age);
+                assert_eq!(l, luminosity_lsun(m, age));
+                assert_eq!(r, radius_rsun(age));
+                assert!((log10_l - l.log10()).abs() < 1e-13);
+                assert!((t / teff_k(l, r) - 1.0).abs() < 1e-14, "{m} {age}");
+            }
+        }
+    }
 
     #[test]
     fn normalisation_of_the_cooling_law() {

@@ -410,17 +410,15 @@ impl Track {
         let m = self.mass_msun;
         let cooling = age_gyr - self.t_end_gyr;
         if self.white_dwarf_progenitor {
-            let l = white_dwarf::cooling_luminosity_lsun(self.mc_final, cooling);
-            let r = self.r_white_dwarf;
-            Body::new(
-                StarKind::WhiteDwarf,
+            white_dwarf_body_and_logs(
                 self.mc_final,
                 m,
-                r,
-                l,
+                self.r_white_dwarf,
+                cooling,
                 age_gyr,
                 self.t_ms_gyr,
             )
+            .0
         } else if m <= thresholds.neutron_star_max_initial_msun {
             neutron_star_body(
                 neutron_star::mass_from_initial_msun(m),
@@ -460,8 +458,37 @@ pub fn white_dwarf_body(
     lifetime: f64,
 ) -> Body {
     let r = white_dwarf::radius_rsun(mass);
-    let l = white_dwarf::cooling_luminosity_lsun(mass, cooling_gyr);
-    Body::new(StarKind::WhiteDwarf, mass, initial, r, l, age, lifetime)
+    white_dwarf_body_and_logs(mass, initial, r, cooling_gyr, age, lifetime).0
+}
+
+/// A white dwarf of this mass and radius after `cooling_gyr` of cooling,
+/// with log10 L for the light functions
+/// ([`white_dwarf::cooling_photosphere`]).
+#[inline]
+pub fn white_dwarf_body_and_logs(
+    mass: f64,
+    initial: f64,
+    radius: f64,
+    cooling_gyr: f64,
+    age: f64,
+    lifetime: f64,
+) -> (Body, KnownLogs) {
+    let (l, log10_l, teff) = white_dwarf::cooling_photosphere(mass, radius, cooling_gyr);
+    let body = Body {
+        kind: StarKind::WhiteDwarf,
+        mass_msun: mass,
+        initial_mass_msun: initial,
+        radius_rsun: radius,
+        luminosity_lsun: l,
+        teff_k: teff,
+        age_gyr: age,
+        lifetime_gyr: lifetime,
+    };
+    let logs = KnownLogs {
+        log10_luminosity: log10_l,
+        log10_teff: f64::NAN,
+    };
+    (body, logs)
 }
 
 /// A neutron star of this mass after `cooling_gyr` of cooling.
@@ -472,10 +499,23 @@ pub fn neutron_star_body(
     age: f64,
     lifetime: f64,
 ) -> Body {
+    neutron_star_body_and_logs(mass, initial, cooling_gyr, age, lifetime).0
+}
+
+/// [`neutron_star_body`] with log10 L and log10 Teff for the light
+/// functions (rounding apart, what `log10` of them gives; tested).
+#[inline]
+pub fn neutron_star_body_and_logs(
+    mass: f64,
+    initial: f64,
+    cooling_gyr: f64,
+    age: f64,
+    lifetime: f64,
+) -> (Body, KnownLogs) {
     let r = neutron_star::radius_rsun();
-    let t = neutron_star::surface_teff_k(cooling_gyr);
+    let (t, log10_t) = neutron_star::surface_teff_and_log10(cooling_gyr);
     let l = super::effective_temperature::luminosity_lsun(r, t);
-    Body {
+    let body = Body {
         kind: StarKind::NeutronStar,
         mass_msun: mass,
         initial_mass_msun: initial,
@@ -484,7 +524,13 @@ pub fn neutron_star_body(
         teff_k: t,
         age_gyr: age,
         lifetime_gyr: lifetime,
-    }
+    };
+    // L = R² (T / 5772 K)⁴.
+    let logs = KnownLogs {
+        log10_luminosity: 2.0 * r.log10() + 4.0 * (log10_t - LOG10_TEFF_SUN_K),
+        log10_teff: log10_t,
+    };
+    (body, logs)
 }
 
 /// A black hole of this mass: no light, horizon as radius.
@@ -503,9 +549,29 @@ pub fn black_hole_body(mass: f64, initial: f64, age: f64, lifetime: f64) -> Body
 
 /// A brown dwarf of this mass and age.
 pub fn brown_dwarf_body(mass: f64, age: f64) -> Body {
-    let r = brown_dwarf::radius_rsun(age);
-    let l = brown_dwarf::luminosity_lsun(mass, age);
-    Body::new(StarKind::BrownDwarf, mass, mass, r, l, age, 0.0)
+    brown_dwarf_body_and_logs(mass, age).0
+}
+
+/// [`brown_dwarf_body`] with log10 L for the light functions
+/// ([`brown_dwarf::photosphere`]).
+#[inline]
+pub fn brown_dwarf_body_and_logs(mass: f64, age: f64) -> (Body, KnownLogs) {
+    let (l, log10_l, r, teff) = brown_dwarf::photosphere(mass, age);
+    let body = Body {
+        kind: StarKind::BrownDwarf,
+        mass_msun: mass,
+        initial_mass_msun: mass,
+        radius_rsun: r,
+        luminosity_lsun: l,
+        teff_k: teff,
+        age_gyr: age,
+        lifetime_gyr: 0.0,
+    };
+    let logs = KnownLogs {
+        log10_luminosity: log10_l,
+        log10_teff: f64::NAN,
+    };
+    (body, logs)
 }
 
 /// A main-sequence star at `age` (clamped to the end of the main sequence).
@@ -563,14 +629,7 @@ pub fn evolve_with_logs(
     use std::f64::consts::LOG10_E;
     let m = initial_mass_msun;
     if m < HYDROGEN_BURNING_MIN_MSUN {
-        let (l, log10_l) = brown_dwarf::luminosity_and_log10(m, age_gyr);
-        let r = brown_dwarf::radius_rsun(age_gyr);
-        let body = Body::new(StarKind::BrownDwarf, m, m, r, l, age_gyr, 0.0);
-        let logs = KnownLogs {
-            log10_luminosity: log10_l,
-            log10_teff: f64::NAN,
-        };
-        return (body, logs);
+        return brown_dwarf_body_and_logs(m, age_gyr);
     }
     if *thresholds != RemnantThresholds::default() {
         return (evolve_direct(m, age_gyr, thresholds), KnownLogs::NONE);
@@ -591,12 +650,11 @@ pub fn evolve_with_logs(
     if age_gyr >= t_end && cell.same_remnant() && (m - M_EC_MSUN).abs() >= 1e-9 {
         // What `Track::remnant` gives on the interpolated track.
         let cooling = age_gyr - t_end;
-        let body = if cell.white_dwarf_progenitor() {
+        return if cell.white_dwarf_progenitor() {
             let (mass, r) = cell.white_dwarf();
-            let l = white_dwarf::cooling_luminosity_lsun(mass, cooling);
-            Body::new(StarKind::WhiteDwarf, mass, m, r, l, age_gyr, t_ms)
+            white_dwarf_body_and_logs(mass, m, r, cooling, age_gyr, t_ms)
         } else if m <= thresholds.neutron_star_max_initial_msun {
-            neutron_star_body(
+            neutron_star_body_and_logs(
                 neutron_star::mass_from_initial_msun(m),
                 m,
                 cooling,
@@ -606,9 +664,8 @@ pub fn evolve_with_logs(
         } else {
             let mass =
                 black_hole::mass_from_initial_msun(m, thresholds.neutron_star_max_initial_msun);
-            black_hole_body(mass, m, age_gyr, t_ms)
+            (black_hole_body(mass, m, age_gyr, t_ms), KnownLogs::NONE)
         };
-        return (body, KnownLogs::NONE);
     }
     (
         track_table::track(m).state_at(age_gyr, thresholds),

@@ -63,14 +63,35 @@ pub fn initial_from_mass_msun(mass_msun: f64, lo: f64, hi: f64) -> f64 {
 
 /// Surface temperature, K, after cooling for `cooling_gyr` (schematic).
 pub fn surface_teff_k(cooling_gyr: f64) -> f64 {
+    surface_teff_and_log10(cooling_gyr).0
+}
+
+/// [`surface_teff_k`] and its log10 (which differs from `log10` of the
+/// temperature by rounding only; tested).
+#[inline]
+pub fn surface_teff_and_log10(cooling_gyr: f64) -> (f64, f64) {
     let x = cooling_gyr.max(MIN_COOLING_GYR) / 1e-4;
     let exponent = if x <= 1.0 { -1.0 / 12.0 } else { -0.4 };
-    1e6 * (exponent * x.ln()).exp()
+    let ln_t_over_1e6 = exponent * x.ln();
+    (
+        1e6 * ln_t_over_1e6.exp(),
+        6.0 + ln_t_over_1e6 * std::f64::consts::LOG10_E,
+    )
 }
 
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    #[test]
+    fn temperature_and_its_logarithm() {
+        for i in 0..=300 {
+            let cooling = 1e-8 * 1e10f64.powf(i as f64 / 300.0);
+            let (t, log10_t) = surface_teff_and_log10(cooling);
+            assert_eq!(t, surface_teff_k(cooling));
+            assert!((log10_t - t.log10()).abs() < 1e-13, "{cooling}");
+        }
+    }
 
     #[test]
     fn radius_inside_nicer_intervals() {

@@ -99,6 +99,27 @@ pub fn cooling_luminosity_lsun(mass_msun: f64, cooling_gyr: f64) -> f64 {
     mass_msun * ratio * (0.4 * ratio.ln()).exp()
 }
 
+/// Luminosity (Lsun, [`cooling_luminosity_lsun`]) with its log10, and
+/// Teff (K) of a white dwarf of this mass (Msun) and radius (Rsun) after
+/// cooling for `cooling_gyr`.
+///
+/// Teff = 5772 K · L^(1/4) · R^(-1/2) is taken as
+/// 5772 K · M^(1/4) · (8.8e6 yr / t)^0.35 / √R, from the same logarithm as
+/// L and without waiting for it; log10 L = log10 M + 1.4 log10(8.8e6 yr / t).
+/// Both differ from the formulas applied to L by rounding only (tested).
+#[inline]
+pub fn cooling_photosphere(mass_msun: f64, radius_rsun: f64, cooling_gyr: f64) -> (f64, f64, f64) {
+    use std::f64::consts::LOG10_E;
+    let t_yr = cooling_gyr.max(MIN_COOLING_GYR) * 1e9;
+    let ratio = 8.8e6 / t_yr;
+    let ln_ratio = ratio.ln();
+    let l = mass_msun * ratio * (0.4 * ln_ratio).exp();
+    let log10_l = (mass_msun.ln() + 1.4 * ln_ratio) * LOG10_E;
+    let teff = super::constants::TEFF_SUN_K * mass_msun.sqrt().sqrt() * (0.35 * ln_ratio).exp()
+        / radius_rsun.sqrt();
+    (l, log10_l, teff)
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -106,6 +127,21 @@ mod tests {
 
     fn rel(a: f64, b: f64) -> f64 {
         (a / b - 1.0).abs()
+    }
+
+    #[test]
+    fn cooling_photosphere_is_stefan_boltzmann() {
+        for i in 0..=100 {
+            let m = 0.17 + 1.2 * i as f64 / 100.0;
+            let r = radius_rsun(m);
+            for j in 0..=100 {
+                let cooling = 1e-4 * 2e5f64.powf(j as f64 / 100.0);
+                let (l, log10_l, t) = cooling_photosphere(m, r, cooling);
+                assert_eq!(l, cooling_luminosity_lsun(m, cooling));
+                assert!((log10_l - l.log10()).abs() < 1e-13, "{m} {cooling}");
+                assert!((t / teff_k(l, r) - 1.0).abs() < 1e-14, "{m} {cooling}");
+            }
+        }
     }
 
     #[test]
