@@ -36,6 +36,27 @@
 //! target; what remains is the habitable zone (four divisions and square
 //! roots, about 10 ns), two exponentials for L and R, the Stefan–Boltzmann
 //! square roots and, under load, cache misses on the 358 KB node table.
+//!
+//! Then the work on each star's chain of dependent operations: Teff as one
+//! exponential of ln L and ln R instead of two square roots and a division
+//! after L and R (main sequence), the same for brown dwarfs, white dwarfs
+//! and neutron stars with log10 L passed on to the magnitude (one `ln`
+//! fewer), dwarf BC_V slopes precomputed (no division), and the
+//! habitable-zone quartic in a shorter chain. Measured 2026-12-02 16:46
+//! UTC on a different 2-core VM (AMD EPYC, 1 MB L2), load average 0.2,
+//! old (main at 4cc831a) and new binaries back to back, 20 samples,
+//! fastest / median wall time per 10^6:
+//! - complete fitted profile, 0.013–150 Msun: 88.1 / 113.7 ms before,
+//!   80.7 / 86.9 ms after;
+//! - complete fitted profile, 0.08–2 Msun: 97.8 / 103.8 ms before,
+//!   84.6 / 89.0 ms after;
+//! - evolve only: 48.6 / 50.4 ms before, 37.5 / 49.8 ms after; rules:
+//!   79.4 / 80.1 ms before, 78.8 / 80.7 ms after.
+//!
+//! So 81–89 ns per complete profile: under the 100 ns target on this
+//! machine. `cargo run --release --example physics_timing` gives the same
+//! figure as CPU time (88 ns fastest round for both mass ranges, 92 / 104 ns
+//! median round, 80 ns from the fastest tenths of the input).
 
 use rand::RngExt;
 use starloom::physics::{Fidelity, KindChoice, StarRequest, star_profile};
