@@ -7,10 +7,10 @@
 //! unquoted files (parallel, hand-split fields) and uses the `csv` crate
 //! when a file has quotes.
 
-use super::designations::push_designation;
-use super::number_format::{push_fixed, push_sig, push_u64};
+use super::designations::{push_designation, put_designation};
+use super::number_format::{push_fixed, push_sig, push_u64, put_fixed, put_sig, put_u64};
 use super::table::{Origin, RowView};
-use super::text_buffer::TextSink;
+use super::text_buffer::{FIELD, TextSink, put_bytes};
 
 /// The columns starloom writes, in order.
 pub const COLUMNS: [&str; 24] = [
@@ -48,11 +48,8 @@ pub fn push_header(buf: &mut Vec<u8>) {
 
 /// Appends a text field, quoting it when it holds `,`, `"` or a line break.
 #[inline]
-pub fn push_text_field<S: TextSink + ?Sized>(buf: &mut S, text: &str) {
-    if text
-        .bytes()
-        .any(|b| matches!(b, b',' | b'"' | b'\n' | b'\r'))
-    {
+pub fn push_text_field<S: TextSink>(buf: &mut S, text: &str) {
+    if needs_quotes(text.as_bytes()) {
         buf.push_byte(b'"');
         for b in text.bytes() {
             if b == b'"' {
@@ -66,35 +63,151 @@ pub fn push_text_field<S: TextSink + ?Sized>(buf: &mut S, text: &str) {
     }
 }
 
-/// Appends `#rrggbb`.
-#[inline]
-pub fn push_hex_colour<S: TextSink + ?Sized>(buf: &mut S, rgb: [u8; 3]) {
+/// Writes `#rrggbb` at `out[pos..]`; needs 7 bytes of room.
+#[inline(always)]
+fn put_hex_colour(out: &mut [u8], pos: usize, rgb: [u8; 3]) -> usize {
     const HEX: &[u8; 16] = b"0123456789abcdef";
-    let f = buf.field();
+    let f = &mut out[pos..pos + 7];
     f[0] = b'#';
     for (i, c) in rgb.into_iter().enumerate() {
         f[1 + 2 * i] = HEX[(c >> 4) as usize];
         f[2 + 2 * i] = HEX[(c & 15) as usize];
     }
-    buf.commit(7);
+    pos + 7
+}
+
+/// Appends `#rrggbb`.
+#[inline]
+pub fn push_hex_colour<S: TextSink>(buf: &mut S, rgb: [u8; 3]) {
+    buf.put(FIELD, |out| Some(put_hex_colour(out, 0, rgb)));
+}
+
+/// Room a row needs in [`put_row`], besides twice its name's length: 24
+/// fields of at most [`FIELD`] bytes each (the widest a field's window is).
+const ROW_ROOM: usize = 24 * FIELD + 64;
+
+/// Writes a field `len` bytes long that starts at `from` (< `pos`) again
+/// at `pos`, by one fixed-length copy of up to 32 bytes.
+#[inline(always)]
+fn put_again(out: &mut [u8], pos: usize, from: usize, len: usize) -> usize {
+    if len > 32 {
+        out.copy_within(from..from + len, pos);
+    } else {
+        let mut word = [0u8; 32];
+        word.copy_from_slice(&out[from..from + 32]);
+        out[pos..pos + 32].copy_from_slice(&word);
+    }
+    pos + len
+}
+
+/// Writes one row as a CSV line at `out[0..]` and returns its length;
+/// needs [`ROW_ROOM`] plus twice the name's length of room. `None`
+/// (nothing kept) for the rare rows [`push_row_general`] writes: a name
+/// to quote, or a number too large for the integer path.
+///
+/// The write position lives in a register and every field is a few
+/// fixed-length stores.
+#[inline(never)]
+fn put_row(out: &mut [u8], row: &RowView<'_>) -> Option<usize> {
+    let name = row.name.as_bytes();
+    if needs_quotes(name) {
+        return None;
+    }
+    let p = row.profile;
+    let mut pos = put_u64(out, 0, row.id);
+    let id_len = pos;
+    out[pos] = b',';
+    pos += 1;
+    pos = if row.system == row.id {
+        // A primary: the system id is its own id, already written.
+        put_again(out, pos, 0, id_len)
+    } else {
+        put_u64(out, pos, row.system)
+    };
+    out[pos] = b',';
+    pos += 1;
+    if row.origin == Origin::Generated {
+        pos = put_designation(out, pos, row.id);
+    }
+    out[pos] = b',';
+    pos = put_bytes(out, pos + 1, name);
+    for v in row.position_ly {
+        out[pos] = b',';
+        pos = put_fixed(out, pos + 1, v, 3)?;
+    }
+    out[pos] = b',';
+    pos = put_bytes(out, pos + 1, p.kind.as_str().as_bytes());
+    out[pos] = b',';
+    let class = p.class.as_str().as_bytes();
+    if needs_quotes(class) {
+        return None;
+    }
+    pos = put_bytes(out, pos + 1, class);
+    out[pos] = b',';
+    let mass_at = pos + 1;
+    pos = put_sig(out, mass_at, p.mass_msun, 5)?;
+    let mass_len = pos - mass_at;
+    out[pos] = b',';
+    pos = if p.initial_mass_msun.to_bits() == p.mass_msun.to_bits() {
+        // Most stars have lost no mass: the same value, already written.
+        put_again(out, pos + 1, mass_at, mass_len)
+    } else {
+        put_sig(out, pos + 1, p.initial_mass_msun, 5)?
+    };
+    for v in [p.radius_rsun, p.luminosity_lsun] {
+        out[pos] = b',';
+        pos = put_sig(out, pos + 1, v, 5)?;
+    }
+    out[pos] = b',';
+    pos = put_fixed(out, pos + 1, p.teff_k, 0)?;
+    for v in [p.age_gyr, p.lifetime_gyr, p.hz.inner_au, p.hz.outer_au] {
+        out[pos] = b',';
+        pos = put_sig(out, pos + 1, v, 5)?;
+    }
+    out[pos] = b',';
+    pos = put_hex_colour(out, pos + 1, p.color_rgb);
+    out[pos] = b',';
+    pos = put_fixed(out, pos + 1, p.abs_mag_v, 3)?;
+    for v in [row.separation_au, row.period_days] {
+        out[pos] = b',';
+        pos = put_sig(out, pos + 1, v, 5)?;
+    }
+    out[pos] = b',';
+    let host: &[u8] = if p.habitable_host { b"true" } else { b"false" };
+    pos = put_bytes(out, pos + 1, host);
+    out[pos] = b',';
+    pos = put_bytes(out, pos + 1, row.origin.as_str().as_bytes());
+    out[pos] = b'\n';
+    Some(pos + 1)
+}
+
+/// Whether a text field holds `,`, `"` or a line break.
+#[inline(always)]
+fn needs_quotes(text: &[u8]) -> bool {
+    text.iter()
+        .any(|&b| matches!(b, b',' | b'"' | b'\n' | b'\r'))
 }
 
 /// Appends one row as a CSV line.
 ///
 /// # Allocations
 /// None beyond growing `buf`.
-pub fn push_row<S: TextSink + ?Sized>(buf: &mut S, row: &RowView<'_>) {
-    let p = row.profile;
-    let id_at = buf.text_len();
-    push_u64(buf, row.id);
-    let id_len = buf.text_len() - id_at;
-    buf.push_byte(b',');
-    if row.system == row.id {
-        // A primary: the system id is its own id, already formatted.
-        buf.push_copy(id_at, id_len);
-    } else {
-        push_u64(buf, row.system);
+#[inline]
+pub fn push_row<S: TextSink>(buf: &mut S, row: &RowView<'_>) {
+    let room = ROW_ROOM + 2 * row.name.len();
+    if buf.put(room, |out| put_row(out, row)).is_none() {
+        push_row_general(buf, row);
     }
+}
+
+/// [`push_row`] field by field, for any row (quoted names, numbers beyond
+/// the integer path); the same bytes as [`put_row`] where both apply.
+#[inline(never)]
+fn push_row_general<S: TextSink>(buf: &mut S, row: &RowView<'_>) {
+    let p = row.profile;
+    push_u64(buf, row.id);
+    buf.push_byte(b',');
+    push_u64(buf, row.system);
     buf.push_byte(b',');
     if row.origin == Origin::Generated {
         push_designation(buf, row.id);
@@ -109,18 +222,12 @@ pub fn push_row<S: TextSink + ?Sized>(buf: &mut S, row: &RowView<'_>) {
     buf.push_bytes(p.kind.as_str().as_bytes());
     buf.push_byte(b',');
     push_text_field(buf, p.class.as_str());
-    buf.push_byte(b',');
-    let mass_at = buf.text_len();
-    push_sig(buf, p.mass_msun, 5);
-    let mass_len = buf.text_len() - mass_at;
-    buf.push_byte(b',');
-    if p.initial_mass_msun.to_bits() == p.mass_msun.to_bits() {
-        // Most stars have lost no mass: the same value, already formatted.
-        buf.push_copy(mass_at, mass_len);
-    } else {
-        push_sig(buf, p.initial_mass_msun, 5);
-    }
-    for v in [p.radius_rsun, p.luminosity_lsun] {
+    for v in [
+        p.mass_msun,
+        p.initial_mass_msun,
+        p.radius_rsun,
+        p.luminosity_lsun,
+    ] {
         buf.push_byte(b',');
         push_sig(buf, v, 5);
     }

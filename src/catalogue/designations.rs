@@ -51,7 +51,7 @@ pub fn split_id(id: u64) -> ([i64; 3], u64, u8) {
 
 /// Appends the designation of a generated star id (`12.-3.1/4b`).
 #[inline]
-pub fn push_designation<S: TextSink + ?Sized>(buf: &mut S, id: u64) {
+pub fn push_designation<S: TextSink>(buf: &mut S, id: u64) {
     use super::number_format::{push_i64, push_u64};
     let (cell, index, slot) = split_id(id);
     push_i64(buf, cell[0]);
@@ -62,6 +62,23 @@ pub fn push_designation<S: TextSink + ?Sized>(buf: &mut S, id: u64) {
     buf.push_byte(b'/');
     push_u64(buf, index);
     buf.push_byte(b'a' + slot);
+}
+
+/// Writes the designation of a generated star id at `out[pos..]` and
+/// returns the position after it; needs 112 bytes of room.
+#[inline(always)]
+pub fn put_designation(out: &mut [u8], pos: usize, id: u64) -> usize {
+    use super::number_format::{put_i64, put_u64};
+    let (cell, index, slot) = split_id(id);
+    let mut pos = put_i64(out, pos, cell[0]);
+    out[pos] = b'.';
+    pos = put_i64(out, pos + 1, cell[1]);
+    out[pos] = b'.';
+    pos = put_i64(out, pos + 1, cell[2]);
+    out[pos] = b'/';
+    pos = put_u64(out, pos + 1, index);
+    out[pos] = b'a' + slot;
+    pos + 1
 }
 
 /// The designation of a generated star id as text.

@@ -7,7 +7,7 @@ use super::number_format::{push_fixed, push_sig, push_u64};
 use super::table::{Origin, RowView};
 use super::text_buffer::TextSink;
 
-fn push_key<S: TextSink + ?Sized>(buf: &mut S, column: usize) {
+fn push_key<S: TextSink>(buf: &mut S, column: usize) {
     if column > 0 {
         buf.push_byte(b',');
     }
@@ -17,7 +17,7 @@ fn push_key<S: TextSink + ?Sized>(buf: &mut S, column: usize) {
 }
 
 /// Appends a JSON string literal.
-pub fn push_json_string<S: TextSink + ?Sized>(buf: &mut S, text: &str) {
+pub fn push_json_string<S: TextSink>(buf: &mut S, text: &str) {
     if text
         .bytes()
         .all(|b| b >= 0x20 && b != b'"' && b != b'\\' && b < 0x7f)
@@ -31,7 +31,7 @@ pub fn push_json_string<S: TextSink + ?Sized>(buf: &mut S, text: &str) {
     }
 }
 
-fn push_number<S: TextSink + ?Sized>(buf: &mut S, x: f64, sig: usize) {
+fn push_number<S: TextSink>(buf: &mut S, x: f64, sig: usize) {
     if x.is_finite() {
         push_sig(buf, x, sig);
     } else {
@@ -39,7 +39,7 @@ fn push_number<S: TextSink + ?Sized>(buf: &mut S, x: f64, sig: usize) {
     }
 }
 
-fn push_fixed_or_null<S: TextSink + ?Sized>(buf: &mut S, x: f64, decimals: usize) {
+fn push_fixed_or_null<S: TextSink>(buf: &mut S, x: f64, decimals: usize) {
     if x.is_finite() {
         push_fixed(buf, x, decimals);
     } else {
@@ -48,7 +48,7 @@ fn push_fixed_or_null<S: TextSink + ?Sized>(buf: &mut S, x: f64, decimals: usize
 }
 
 /// Appends one row as a JSON object and a newline.
-pub fn push_row<S: TextSink + ?Sized>(buf: &mut S, row: &RowView<'_>) {
+pub fn push_row<S: TextSink>(buf: &mut S, row: &RowView<'_>) {
     let p = row.profile;
     buf.push_byte(b'{');
     push_key(buf, 0);

@@ -132,14 +132,15 @@ fn trailing_zero_digits(digits: &[u8; 2 * DIGITS]) -> usize {
     8 + ((u64::from_le_bytes(w) ^ ZEROS).leading_zeros() / 8) as usize
 }
 
-/// Appends an unsigned integer in decimal.
+/// Writes an unsigned integer in decimal at `out[pos..]` and returns the
+/// position after it; needs 24 bytes of room.
 ///
 /// Up to eight digits are one word shifted past its leading zeros; longer
 /// values are two or three such words stored side by side.
-#[inline]
-pub fn push_u64<S: TextSink + ?Sized>(buf: &mut S, v: u64) {
+#[inline(always)]
+pub fn put_u64(out: &mut [u8], pos: usize, v: u64) -> usize {
     let n = digit_count(v);
-    let f = buf.field();
+    let f = &mut out[pos..pos + 24];
     if v < POW10_U64[8] {
         let word = eight_digits(v as u32) >> (8 * (8 - n));
         f[..8].copy_from_slice(&word.to_le_bytes());
@@ -147,35 +148,43 @@ pub fn push_u64<S: TextSink + ?Sized>(buf: &mut S, v: u64) {
         let high = n - 8;
         let word = eight_digits((v / POW10_U64[8]) as u32) >> (8 * (8 - high));
         f[..8].copy_from_slice(&word.to_le_bytes());
-        f[high..high + 8]
-            .copy_from_slice(&eight_digits((v % POW10_U64[8]) as u32).to_le_bytes());
+        f[high..high + 8].copy_from_slice(&eight_digits((v % POW10_U64[8]) as u32).to_le_bytes());
     } else {
         let top = n - 16;
         let rest = v % POW10_U64[16];
         let word = eight_digits((v / POW10_U64[16]) as u32) >> (8 * (8 - top));
         f[..8].copy_from_slice(&word.to_le_bytes());
-        f[top..top + 8]
-            .copy_from_slice(&eight_digits((rest / POW10_U64[8]) as u32).to_le_bytes());
+        f[top..top + 8].copy_from_slice(&eight_digits((rest / POW10_U64[8]) as u32).to_le_bytes());
         f[top + 8..top + 16]
             .copy_from_slice(&eight_digits((rest % POW10_U64[8]) as u32).to_le_bytes());
     }
-    buf.commit(n);
+    pos + n
+}
+
+/// [`put_u64`] for a signed integer; needs 25 bytes of room.
+#[inline(always)]
+pub fn put_i64(out: &mut [u8], pos: usize, v: i64) -> usize {
+    out[pos] = b'-';
+    put_u64(out, pos + (v < 0) as usize, v.unsigned_abs())
+}
+
+/// Appends an unsigned integer in decimal.
+#[inline]
+pub fn push_u64<S: TextSink>(buf: &mut S, v: u64) {
+    buf.put(FIELD, |out| Some(put_u64(out, 0, v)));
 }
 
 /// Appends a signed integer in decimal.
 #[inline]
-pub fn push_i64<S: TextSink + ?Sized>(buf: &mut S, v: i64) {
-    if v < 0 {
-        buf.push_byte(b'-');
-    }
-    push_u64(buf, v.unsigned_abs());
+pub fn push_i64<S: TextSink>(buf: &mut S, v: i64) {
+    buf.put(FIELD, |out| Some(put_i64(out, 0, v)));
 }
 
 /// `y` rounded half away from zero, for finite `0 <= y < 9e18`: the
 /// fraction `y - trunc(y)` is exact in binary, so this equals `y.round()`.
 /// (Below 2^63 the signed conversions give the same integer and double as
 /// the unsigned ones, in one instruction each.)
-#[inline]
+#[inline(always)]
 fn round_half_away(y: f64) -> u64 {
     let t = y as i64;
     (t + ((y - t as f64) >= 0.5) as i64) as u64
@@ -259,31 +268,58 @@ fn lay_wide(field: &mut [u8; FIELD], scaled: u64, neg: usize, d: usize) -> Laid 
     }
 }
 
+/// The [`FIELD`]-byte window at `out[pos..]`.
+#[inline(always)]
+fn window(out: &mut [u8], pos: usize) -> &mut [u8; FIELD] {
+    (&mut out[pos..pos + FIELD])
+        .try_into()
+        .expect("a FIELD-long range")
+}
+
+/// Writes `x` with exactly `decimals` digits after the point (at most 15)
+/// at `out[pos..]` and returns the position after it; needs [`FIELD`]
+/// bytes of room. NaN writes nothing (an empty field); infinities write
+/// `inf`/`-inf`. `None` (nothing written) when |x|·10^decimals is 9e18 or
+/// more: [`push_fixed`] then uses the standard formatter.
+#[inline(always)]
+pub fn put_fixed(out: &mut [u8], pos: usize, x: f64, decimals: usize) -> Option<usize> {
+    if !x.is_finite() {
+        return Some(put_non_finite(out, pos, x));
+    }
+    let laid = lay_fixed(window(out, pos), x, decimals.min(15))?;
+    Some(pos + laid.len)
+}
+
+/// Nothing for NaN, `inf` or `-inf`.
+#[cold]
+#[inline(never)]
+fn put_non_finite(out: &mut [u8], pos: usize, x: f64) -> usize {
+    if x.is_nan() {
+        return pos;
+    }
+    let text: &[u8] = if x > 0.0 { b"inf" } else { b"-inf" };
+    out[pos..pos + text.len()].copy_from_slice(text);
+    pos + text.len()
+}
+
 /// Appends `x` with exactly `decimals` digits after the point (at most 15).
 /// NaN appends nothing (an empty field); infinities append `inf`/`-inf`.
 #[inline]
-pub fn push_fixed<S: TextSink + ?Sized>(buf: &mut S, x: f64, decimals: usize) {
-    if !x.is_finite() {
-        if x.is_infinite() {
-            buf.push_bytes(if x > 0.0 { b"inf" } else { b"-inf" });
-        }
-        return;
-    }
-    let d = decimals.min(15);
-    match lay_fixed(buf.field(), x, d) {
-        Some(laid) => buf.commit(laid.len),
-        None => {
-            // Too large for the integer path: the standard formatter.
-            buf.commit(0);
-            buf.push_bytes(format!("{x:.d$}").as_bytes());
-        }
+pub fn push_fixed<S: TextSink>(buf: &mut S, x: f64, decimals: usize) {
+    if buf
+        .put(FIELD, |out| put_fixed(out, 0, x, decimals))
+        .is_none()
+    {
+        // Too large for the integer path: the standard formatter.
+        let d = decimals.min(15);
+        buf.push_bytes(format!("{x:.d$}").as_bytes());
     }
 }
 
 /// `floor(log10(a))` for finite `a > 0`, from the binary exponent and a
 /// table; values within 1e-12 of a power of ten, and those outside
 /// 1e-31 ..= 1e31, take `log10` itself so the result never differs from it.
-#[inline]
+#[inline(always)]
 fn decimal_exponent(a: f64) -> i32 {
     if (1e-31..1e31).contains(&a) {
         let e2 = ((a.to_bits() >> 52) & 0x7ff) as i32 - 1023;
@@ -298,12 +334,18 @@ fn decimal_exponent(a: f64) -> i32 {
             return k;
         }
     }
+    log10_floor(a)
+}
+
+#[cold]
+#[inline(never)]
+fn log10_floor(a: f64) -> i32 {
     a.log10().floor() as i32
 }
 
 /// The length of a laid-out field with `decimals > 0` once trailing zeros
 /// of the decimals, then a trailing point, are removed.
-#[inline]
+#[inline(always)]
 fn trimmed_len(laid: &Laid, decimals: usize) -> usize {
     if decimals == 0 {
         return laid.len;
@@ -312,40 +354,34 @@ fn trimmed_len(laid: &Laid, decimals: usize) -> usize {
     laid.len - zeros - (zeros == decimals) as usize
 }
 
-/// Appends `x` rounded to `sig` significant digits (1–15), without
-/// trailing zeros; scientific notation outside 1e-4 ..= 1e15.
-#[inline]
-pub fn push_sig<S: TextSink + ?Sized>(buf: &mut S, x: f64, sig: usize) {
-    if !x.is_finite() {
-        push_fixed(buf, x, 0);
-        return;
-    }
+/// Writes `x` rounded to `sig` significant digits (1–15), without
+/// trailing zeros (scientific notation outside 1e-4 ..= 1e15), at
+/// `out[pos..]` and returns the position after it; needs [`FIELD`] bytes
+/// of room. `None` (nothing written) only where the integer path cannot
+/// hold the value, which no finite value reaches.
+#[inline(always)]
+pub fn put_sig(out: &mut [u8], pos: usize, x: f64, sig: usize) -> Option<usize> {
     if x == 0.0 {
-        buf.push_byte(b'0');
-        return;
+        out[pos] = b'0';
+        return Some(pos + 1);
+    }
+    if !x.is_finite() {
+        return put_fixed(out, pos, x, 0);
     }
     let sig = sig.clamp(1, 15) as i32;
     let e = decimal_exponent(x.abs());
-    if (-4..15).contains(&e) {
-        let decimals = (sig - 1 - e).max(0) as usize;
-        // Decimals beyond 15 are never written, so trim as for 15.
-        let d = decimals.min(15);
-        match lay_fixed(buf.field(), x, d) {
-            Some(laid) => buf.commit(trimmed_len(&laid, d)),
-            None => {
-                // Unreachable for |x| < 1e15 and decimals ≤ 18; kept for safety.
-                buf.commit(0);
-                push_fixed(buf, x, decimals);
-            }
-        }
-    } else {
-        push_scientific(buf, x, sig, e);
+    if !(-4..15).contains(&e) {
+        return put_scientific(out, pos, x, sig, e);
     }
+    // Decimals beyond 15 are never written, so trim as for 15.
+    let d = ((sig - 1 - e).max(0) as usize).min(15);
+    let laid = lay_fixed(window(out, pos), x, d)?;
+    Some(pos + trimmed_len(&laid, d))
 }
 
-/// The scientific-notation branch of [`push_sig`].
+/// The scientific-notation branch of [`put_sig`].
 #[inline(never)]
-fn push_scientific<S: TextSink + ?Sized>(buf: &mut S, x: f64, sig: i32, e: i32) {
+fn put_scientific(out: &mut [u8], pos: usize, x: f64, sig: i32, e: i32) -> Option<usize> {
     let mut mantissa = x / 10f64.powi(e);
     let mut e = e;
     let scale = POW10[(sig - 1) as usize];
@@ -354,15 +390,22 @@ fn push_scientific<S: TextSink + ?Sized>(buf: &mut S, x: f64, sig: i32, e: i32) 
         e += 1;
     }
     let d = (sig - 1) as usize;
-    match lay_fixed(buf.field(), mantissa, d) {
-        Some(laid) => buf.commit(trimmed_len(&laid, d)),
-        None => {
-            buf.commit(0);
-            push_fixed(buf, mantissa, d);
-        }
+    let laid = lay_fixed(window(out, pos), mantissa, d)?;
+    let end = pos + trimmed_len(&laid, d);
+    out[end] = b'e';
+    Some(put_i64(out, end + 1, e as i64))
+}
+
+/// Appends `x` rounded to `sig` significant digits (1–15), without
+/// trailing zeros; scientific notation outside 1e-4 ..= 1e15.
+#[inline]
+pub fn push_sig<S: TextSink>(buf: &mut S, x: f64, sig: usize) {
+    if buf.put(FIELD, |out| put_sig(out, 0, x, sig)).is_none() {
+        // Unreachable for finite values; kept for safety.
+        let e = x.abs().log10().floor() as i32;
+        let decimals = (sig.clamp(1, 15) as i32 - 1 - e).max(0) as usize;
+        push_fixed(buf, x, decimals);
     }
-    buf.push_byte(b'e');
-    push_i64(buf, e as i64);
 }
 
 #[cfg(test)]

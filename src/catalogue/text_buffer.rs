@@ -1,48 +1,39 @@
 //! Where formatted text goes: any [`TextSink`] (a plain `Vec<u8>`, or a
 //! [`TextBuffer`] for the long runs of rows `populate` writes).
 //!
-//! Number fields are laid out by fixed-length stores into a
-//! [`FIELD`]-byte window at the end of the text and then cut to their real
-//! length. On a `Vec<u8>` that window is zero-filled for every field; a
-//! [`TextBuffer`] keeps its spare room initialised once, so a field costs
-//! one room check and the stores themselves.
+//! Fields are laid out by fixed-length stores into a window of writable
+//! bytes just past the text, then the text is extended by their real
+//! length ([`TextSink::put`]). On a `Vec<u8>` the window is zero-filled
+//! each time; a [`TextBuffer`] keeps its spare room initialised once, so
+//! a window costs one room check. A CSV row is one window
+//! (`csv_format::push_row`), written with the write position in a
+//! register rather than a length field in memory.
 
-/// Bytes of the window a number field is laid out in: a sign, 19 integer
-/// digits, a point and a 24-byte copy of the decimals fit.
+/// Bytes of the window one number field is laid out in: a sign, 19
+/// integer digits, a point and a 24-byte copy of the decimals fit.
 pub const FIELD: usize = 48;
 
 /// A growable byte sink for formatted text.
 pub trait TextSink {
-    /// A window of [`FIELD`] writable bytes just past the text; its
-    /// contents are unspecified. Follow it with [`TextSink::commit`]
-    /// before any other call.
-    fn field(&mut self) -> &mut [u8; FIELD];
-    /// Keeps the first `len` (at most [`FIELD`]) bytes of the window from
-    /// [`TextSink::field`] as text and drops the rest.
-    fn commit(&mut self, len: usize);
+    /// Calls `put` with at least `room` writable bytes just past the text
+    /// (their contents unspecified); the first `n` of them become text
+    /// when `put` returns `Some(n)` (`n <= room`), none when it returns
+    /// `None`. Returns what `put` returned.
+    fn put<F: FnOnce(&mut [u8]) -> Option<usize>>(&mut self, room: usize, put: F) -> Option<usize>;
     /// Appends one byte.
     fn push_byte(&mut self, b: u8);
     /// Appends bytes.
     fn push_bytes(&mut self, bytes: &[u8]);
-    /// Length of the text so far, bytes.
-    fn text_len(&self) -> usize;
-    /// Appends a copy of the text's bytes `start..start + len` (a field
-    /// written earlier).
-    fn push_copy(&mut self, start: usize, len: usize);
 }
 
 impl TextSink for Vec<u8> {
     #[inline]
-    fn field(&mut self) -> &mut [u8; FIELD] {
+    fn put<F: FnOnce(&mut [u8]) -> Option<usize>>(&mut self, room: usize, put: F) -> Option<usize> {
         let start = self.len();
-        self.resize(start + FIELD, 0);
-        (&mut self[start..]).try_into().expect("FIELD bytes were added")
-    }
-
-    #[inline]
-    fn commit(&mut self, len: usize) {
-        let keep = self.len() - FIELD + len.min(FIELD);
-        self.truncate(keep);
+        self.resize(start + room, 0);
+        let written = put(&mut self[start..]);
+        self.truncate(start + written.unwrap_or(0).min(room));
+        written
     }
 
     #[inline]
@@ -53,16 +44,6 @@ impl TextSink for Vec<u8> {
     #[inline]
     fn push_bytes(&mut self, bytes: &[u8]) {
         self.extend_from_slice(bytes);
-    }
-
-    #[inline]
-    fn text_len(&self) -> usize {
-        self.len()
-    }
-
-    #[inline]
-    fn push_copy(&mut self, start: usize, len: usize) {
-        self.extend_from_within(start..start + len);
     }
 }
 
@@ -126,17 +107,11 @@ impl TextBuffer {
 
 impl TextSink for TextBuffer {
     #[inline]
-    fn field(&mut self) -> &mut [u8; FIELD] {
-        self.reserve(FIELD);
-        let start = self.len;
-        (&mut self.bytes[start..start + FIELD])
-            .try_into()
-            .expect("a FIELD-long range")
-    }
-
-    #[inline]
-    fn commit(&mut self, len: usize) {
-        self.len += len.min(FIELD);
+    fn put<F: FnOnce(&mut [u8]) -> Option<usize>>(&mut self, room: usize, put: F) -> Option<usize> {
+        self.reserve(room);
+        let written = put(&mut self.bytes[self.len..]);
+        self.len += written.unwrap_or(0).min(room);
+        written
     }
 
     #[inline]
@@ -148,34 +123,32 @@ impl TextSink for TextBuffer {
 
     #[inline]
     fn push_bytes(&mut self, bytes: &[u8]) {
-        let n = bytes.len();
-        self.reserve(n.max(16));
-        let to = &mut self.bytes[self.len..];
-        // Short texts (names, kinds, classes) by two overlapping
-        // fixed-length copies instead of a call to `memcpy`.
-        if (8..=16).contains(&n) {
-            to[..8].copy_from_slice(&bytes[..8]);
-            to[n - 8..n].copy_from_slice(&bytes[n - 8..]);
-        } else if (4..8).contains(&n) {
-            to[..4].copy_from_slice(&bytes[..4]);
-            to[n - 4..n].copy_from_slice(&bytes[n - 4..]);
-        } else {
-            to[..n].copy_from_slice(bytes);
-        }
-        self.len += n;
+        self.reserve(bytes.len() + 32);
+        self.len = put_bytes(&mut self.bytes, self.len, bytes);
     }
+}
 
-    #[inline]
-    fn text_len(&self) -> usize {
-        self.len
+/// Writes `bytes` at `out[pos..]` and returns the position after them.
+/// Up to 32 bytes are copied by two overlapping fixed-length copies (no
+/// call to `memcpy`), which may also write up to 32 bytes past them: the
+/// caller leaves `pos + bytes.len().max(32)` bytes of room.
+#[inline(always)]
+pub fn put_bytes(out: &mut [u8], pos: usize, bytes: &[u8]) -> usize {
+    let n = bytes.len();
+    let to = &mut out[pos..];
+    if n >= 16 && n <= 32 {
+        to[..16].copy_from_slice(&bytes[..16]);
+        to[n - 16..n].copy_from_slice(&bytes[n - 16..]);
+    } else if n >= 8 && n < 16 {
+        to[..8].copy_from_slice(&bytes[..8]);
+        to[n - 8..n].copy_from_slice(&bytes[n - 8..]);
+    } else if n >= 4 && n < 8 {
+        to[..4].copy_from_slice(&bytes[..4]);
+        to[n - 4..n].copy_from_slice(&bytes[n - 4..]);
+    } else {
+        to[..n].copy_from_slice(bytes);
     }
-
-    #[inline]
-    fn push_copy(&mut self, start: usize, len: usize) {
-        self.reserve(len);
-        self.bytes.copy_within(start..start + len, self.len);
-        self.len += len;
-    }
+    pos + n
 }
 
 #[cfg(test)]
@@ -184,32 +157,51 @@ mod tests {
 
     fn fill<S: TextSink>(s: &mut S) {
         s.push_bytes(b"ab");
-        let f = s.field();
-        f[..3].copy_from_slice(b"xyz");
-        s.commit(2);
+        let n = s.put(FIELD, |w| {
+            w[..3].copy_from_slice(b"xyz");
+            Some(2)
+        });
+        assert_eq!(n, Some(2));
+        assert_eq!(
+            s.put(FIELD, |w| {
+                w[0] = b'?';
+                None
+            }),
+            None
+        );
         s.push_byte(b'!');
-        let at = s.text_len();
-        s.push_bytes(b"0123456789abc");
-        s.push_copy(at + 1, 3);
-        s.push_bytes(b"xyzw-");
-        s.push_bytes(b"");
-        s.push_bytes(b"q");
+        for text in [
+            &b"0123456789abcdefghijklmnopqrstuvwxyz"[..],
+            b"0123456789abcdefghijk",
+            b"0123456789abcdef",
+            b"0123456789ab",
+            b"01234567",
+            b"0123456",
+            b"0123",
+            b"012",
+            b"",
+        ] {
+            s.push_bytes(text);
+            s.push_byte(b'|');
+        }
     }
 
     #[test]
     fn both_sinks_hold_the_same_text_and_the_buffer_grows() {
         let mut v = Vec::new();
         fill(&mut v);
-        assert_eq!(v, b"abxy!0123456789abc123xyzw-q");
+        let expected: &[u8] = b"abxy!0123456789abcdefghijklmnopqrstuvwxyz|\
+0123456789abcdefghijk|0123456789abcdef|0123456789ab|01234567|0123456|0123|012||";
+        assert_eq!(v, expected);
         let mut t = TextBuffer::with_capacity(0);
         for _ in 0..100 {
             fill(&mut t);
         }
-        assert_eq!(t.len(), 2700);
-        assert_eq!(&t.as_bytes()[2673..], v.as_slice());
+        assert_eq!(t.len(), 100 * expected.len());
+        assert_eq!(&t.as_bytes()[99 * expected.len()..], expected);
         t.clear();
         assert!(t.is_empty());
         fill(&mut t);
-        assert_eq!(t.as_bytes(), v.as_slice());
+        assert_eq!(t.as_bytes(), expected);
     }
 }

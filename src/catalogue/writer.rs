@@ -43,7 +43,7 @@ impl Format {
 
     /// Appends one row.
     #[inline]
-    pub fn push_row<S: TextSink + ?Sized>(self, buf: &mut S, row: &RowView<'_>) {
+    pub fn push_row<S: TextSink>(self, buf: &mut S, row: &RowView<'_>) {
         match self {
             Format::Csv => super::csv_format::push_row(buf, row),
             Format::Jsonl => super::jsonl::push_row(buf, row),
