@@ -61,6 +61,22 @@ const POW10_WIDE: [f64; 65] = [
     1e28, 1e29, 1e30, 1e31, 1e32,
 ];
 
+/// `10^k · (1 + 1e-12)` and `10^k · (1 − 1e-12)` for the entries of
+/// [`POW10_WIDE`]: the bounds [`decimal_exponent`] trusts, computed once
+/// (the same products it would compute).
+const POW10_ABOVE: [f64; 65] = scaled_table(1.0 + 1e-12);
+const POW10_BELOW: [f64; 65] = scaled_table(1.0 - 1e-12);
+
+const fn scaled_table(factor: f64) -> [f64; 65] {
+    let mut out = [0.0; 65];
+    let mut i = 0;
+    while i < 65 {
+        out[i] = POW10_WIDE[i] * factor;
+        i += 1;
+    }
+    out
+}
+
 /// Digits made for one integer: three groups of eight.
 const DIGITS: usize = 24;
 /// Eight ASCII zeros as a little-endian word.
@@ -326,11 +342,8 @@ fn decimal_exponent(a: f64) -> i32 {
         // floor(e2 · log10 2), with log10 2 ≈ 1233 / 4096: exact for |e2| < 1600.
         let mut k = (e2 * 1233) >> 12;
         k += (a >= POW10_WIDE[(k + 1 - WIDE_MIN) as usize]) as i32;
-        let (lo, hi) = (
-            POW10_WIDE[(k - WIDE_MIN) as usize],
-            POW10_WIDE[(k + 1 - WIDE_MIN) as usize],
-        );
-        if a > lo * (1.0 + 1e-12) && a < hi * (1.0 - 1e-12) {
+        let i = (k - WIDE_MIN) as usize;
+        if a > POW10_ABOVE[i] && a < POW10_BELOW[i + 1] {
             return k;
         }
     }
