@@ -35,10 +35,9 @@
 //! copied primary system ids and unchanged initial masses, names from
 //! padded parts, IMF constants computed once), same CLI command, old and
 //! new binaries run alternately, load average 3-5 from other sessions:
-//! - instructions (callgrind, `--box 737,737,737`): main 8.7e9 (estimated
-//!   from 1.05e9 at `--box 342,342,342`), after 6.1e9; at 342³: 1.053e9
-//!   before, 0.763e9 after; formatting 4540 → about 2570 instructions a
-//!   row, now about half of all instructions (physics about 15 %);
+//! - instructions (callgrind, `--box 737,737,737`): before 8.83e9, after
+//!   6.03e9 (−32 %); formatting 4540 → about 2570 instructions a row, now
+//!   about half of all instructions (physics about 15 %);
 //! - 10^6 user CPU: before 1.36-1.63 s, after 0.96-1.11 s; system CPU
 //!   0.07-0.9 s for both, depending on whether the page-cache pages are
 //!   fresh to the VM (a plain `dd` of 273 MB takes 0.07-0.83 s system);
