@@ -136,17 +136,17 @@ impl TextSink for TextBuffer {
 pub fn put_bytes(out: &mut [u8], pos: usize, bytes: &[u8]) -> usize {
     let n = bytes.len();
     let to = &mut out[pos..];
-    if n >= 16 && n <= 32 {
+    if !(4..=32).contains(&n) {
+        to[..n].copy_from_slice(bytes);
+    } else if n >= 16 {
         to[..16].copy_from_slice(&bytes[..16]);
         to[n - 16..n].copy_from_slice(&bytes[n - 16..]);
-    } else if n >= 8 && n < 16 {
+    } else if n >= 8 {
         to[..8].copy_from_slice(&bytes[..8]);
         to[n - 8..n].copy_from_slice(&bytes[n - 8..]);
-    } else if n >= 4 && n < 8 {
+    } else {
         to[..4].copy_from_slice(&bytes[..4]);
         to[n - 4..n].copy_from_slice(&bytes[n - 4..]);
-    } else {
-        to[..n].copy_from_slice(bytes);
     }
     pos + n
 }
