@@ -6,6 +6,8 @@
 //! same whatever region is generated. The designation spells the same
 //! fields out: `12.-3.1/4b` is cell (12, −3, 1), system 4, member b.
 
+use super::text_buffer::TextSink;
+
 /// Bits of the system index within a cell.
 pub const INDEX_BITS: u32 = 13;
 /// Bits of the member slot within a system.
@@ -48,17 +50,35 @@ pub fn split_id(id: u64) -> ([i64; 3], u64, u8) {
 }
 
 /// Appends the designation of a generated star id (`12.-3.1/4b`).
-pub fn push_designation(buf: &mut Vec<u8>, id: u64) {
+#[inline]
+pub fn push_designation<S: TextSink>(buf: &mut S, id: u64) {
     use super::number_format::{push_i64, push_u64};
     let (cell, index, slot) = split_id(id);
     push_i64(buf, cell[0]);
-    buf.push(b'.');
+    buf.push_byte(b'.');
     push_i64(buf, cell[1]);
-    buf.push(b'.');
+    buf.push_byte(b'.');
     push_i64(buf, cell[2]);
-    buf.push(b'/');
+    buf.push_byte(b'/');
     push_u64(buf, index);
-    buf.push(b'a' + slot);
+    buf.push_byte(b'a' + slot);
+}
+
+/// Writes the designation of a generated star id at `out[pos..]` and
+/// returns the position after it; needs 112 bytes of room.
+#[inline(always)]
+pub fn put_designation(out: &mut [u8], pos: usize, id: u64) -> usize {
+    use super::number_format::{put_i64, put_u64};
+    let (cell, index, slot) = split_id(id);
+    let mut pos = put_i64(out, pos, cell[0]);
+    out[pos] = b'.';
+    pos = put_i64(out, pos + 1, cell[1]);
+    out[pos] = b'.';
+    pos = put_i64(out, pos + 1, cell[2]);
+    out[pos] = b'/';
+    pos = put_u64(out, pos + 1, index);
+    out[pos] = b'a' + slot;
+    pos + 1
 }
 
 /// The designation of a generated star id as text.

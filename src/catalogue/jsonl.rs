@@ -5,62 +5,63 @@ use super::csv_format::COLUMNS;
 use super::designations::push_designation;
 use super::number_format::{push_fixed, push_sig, push_u64};
 use super::table::{Origin, RowView};
+use super::text_buffer::TextSink;
 
-fn push_key(buf: &mut Vec<u8>, column: usize) {
+fn push_key<S: TextSink>(buf: &mut S, column: usize) {
     if column > 0 {
-        buf.push(b',');
+        buf.push_byte(b',');
     }
-    buf.push(b'"');
-    buf.extend_from_slice(COLUMNS[column].as_bytes());
-    buf.extend_from_slice(b"\":");
+    buf.push_byte(b'"');
+    buf.push_bytes(COLUMNS[column].as_bytes());
+    buf.push_bytes(b"\":");
 }
 
 /// Appends a JSON string literal.
-pub fn push_json_string(buf: &mut Vec<u8>, text: &str) {
+pub fn push_json_string<S: TextSink>(buf: &mut S, text: &str) {
     if text
         .bytes()
         .all(|b| b >= 0x20 && b != b'"' && b != b'\\' && b < 0x7f)
     {
-        buf.push(b'"');
-        buf.extend_from_slice(text.as_bytes());
-        buf.push(b'"');
+        buf.push_byte(b'"');
+        buf.push_bytes(text.as_bytes());
+        buf.push_byte(b'"');
     } else {
         let quoted = serde_json::to_string(text).unwrap_or_else(|_| "\"\"".into());
-        buf.extend_from_slice(quoted.as_bytes());
+        buf.push_bytes(quoted.as_bytes());
     }
 }
 
-fn push_number(buf: &mut Vec<u8>, x: f64, sig: usize) {
+fn push_number<S: TextSink>(buf: &mut S, x: f64, sig: usize) {
     if x.is_finite() {
         push_sig(buf, x, sig);
     } else {
-        buf.extend_from_slice(b"null");
+        buf.push_bytes(b"null");
     }
 }
 
-fn push_fixed_or_null(buf: &mut Vec<u8>, x: f64, decimals: usize) {
+fn push_fixed_or_null<S: TextSink>(buf: &mut S, x: f64, decimals: usize) {
     if x.is_finite() {
         push_fixed(buf, x, decimals);
     } else {
-        buf.extend_from_slice(b"null");
+        buf.push_bytes(b"null");
     }
 }
 
 /// Appends one row as a JSON object and a newline.
-pub fn push_row(buf: &mut Vec<u8>, row: &RowView<'_>) {
+pub fn push_row<S: TextSink>(buf: &mut S, row: &RowView<'_>) {
     let p = row.profile;
-    buf.push(b'{');
+    buf.push_byte(b'{');
     push_key(buf, 0);
     push_u64(buf, row.id);
     push_key(buf, 1);
     push_u64(buf, row.system);
     push_key(buf, 2);
     if row.origin == Origin::Generated {
-        buf.push(b'"');
+        buf.push_byte(b'"');
         push_designation(buf, row.id);
-        buf.push(b'"');
+        buf.push_byte(b'"');
     } else {
-        buf.extend_from_slice(b"null");
+        buf.push_bytes(b"null");
     }
     push_key(buf, 3);
     push_json_string(buf, row.name);
@@ -94,9 +95,9 @@ pub fn push_row(buf: &mut Vec<u8>, row: &RowView<'_>) {
         push_number(buf, v, 5);
     }
     push_key(buf, 18);
-    buf.push(b'"');
+    buf.push_byte(b'"');
     super::csv_format::push_hex_colour(buf, p.color_rgb);
-    buf.push(b'"');
+    buf.push_byte(b'"');
     push_key(buf, 19);
     push_fixed_or_null(buf, p.abs_mag_v, 3);
     push_key(buf, 20);
@@ -104,8 +105,8 @@ pub fn push_row(buf: &mut Vec<u8>, row: &RowView<'_>) {
     push_key(buf, 21);
     push_number(buf, row.period_days, 5);
     push_key(buf, 22);
-    buf.extend_from_slice(if p.habitable_host { b"true" } else { b"false" });
+    buf.push_bytes(if p.habitable_host { b"true" } else { b"false" });
     push_key(buf, 23);
     push_json_string(buf, row.origin.as_str());
-    buf.extend_from_slice(b"}\n");
+    buf.push_bytes(b"}\n");
 }

@@ -10,8 +10,10 @@ pub mod names;
 pub mod number_format;
 pub mod reader;
 pub mod table;
+pub mod text_buffer;
 pub mod writer;
 
 pub use reader::read_catalogue;
 pub use table::{Catalogue, CatalogueMeta, Origin, RowView, StarRow};
+pub use text_buffer::{TextBuffer, TextSink};
 pub use writer::{Format, write_catalogue};

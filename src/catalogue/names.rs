@@ -17,7 +17,31 @@ const ONSETS: [&str; 24] = [
 const VOWELS: [&str; 8] = ["a", "e", "i", "o", "u", "ai", "ea", "ou"];
 const CODAS: [&str; 10] = ["", "", "", "", "n", "r", "s", "l", "m", "th"];
 
+/// A table of syllable parts as (two bytes, padded with zeros; length).
+const fn padded<const N: usize>(parts: [&str; N]) -> [([u8; 2], usize); N] {
+    let mut out = [([0u8; 2], 0usize); N];
+    let mut i = 0;
+    while i < N {
+        let b = parts[i].as_bytes();
+        let mut j = 0;
+        while j < b.len() {
+            out[i].0[j] = b[j];
+            j += 1;
+        }
+        out[i].1 = b.len();
+        i += 1;
+    }
+    out
+}
+
+const ONSET_BYTES: [([u8; 2], usize); 24] = padded(ONSETS);
+const VOWEL_BYTES: [([u8; 2], usize); 8] = padded(VOWELS);
+const CODA_BYTES: [([u8; 2], usize); 10] = padded(CODAS);
+
 /// Writes the name of system `system_key` into `out` (cleared first).
+///
+/// The parts are put together in a small byte array by fixed two-byte
+/// copies (no call to `memcpy` per part) and handed to `out` at once.
 pub fn system_name(seed: u64, system_key: u64, out: &mut String) {
     out.clear();
     let mut rng = rng_for(seed, system_key, Stream::Names);
@@ -29,22 +53,29 @@ pub fn system_name(seed: u64, system_key: u64, out: &mut String) {
     } else {
         4
     };
+    // At most four syllables of three two-byte parts, plus two bytes of
+    // room for the last copy.
+    let mut text = [0u8; 26];
+    let mut len = 0;
+    let mut put = |part: &([u8; 2], usize)| {
+        text[len..len + 2].copy_from_slice(&part.0);
+        len += part.1;
+    };
     for s in 0..syllables {
         let r: u32 = rng.random();
         // The first syllable starts with a vowel one time in eight.
         if !(s == 0 && r.is_multiple_of(8)) {
-            out.push_str(ONSETS[(r >> 3) as usize % ONSETS.len()]);
+            put(&ONSET_BYTES[(r >> 3) as usize % ONSETS.len()]);
         }
-        out.push_str(VOWELS[(r >> 8) as usize % VOWELS.len()]);
+        put(&VOWEL_BYTES[(r >> 8) as usize % VOWELS.len()]);
         // Codas only on the last syllable or, rarely, inside.
-        let coda = CODAS[(r >> 12) as usize % CODAS.len()];
         if s + 1 == syllables || (r >> 20).is_multiple_of(4) {
-            out.push_str(coda);
+            put(&CODA_BYTES[(r >> 12) as usize % CODAS.len()]);
         }
     }
-    if let Some(first) = out.get_mut(..1) {
-        first.make_ascii_uppercase();
-    }
+    text[0].make_ascii_uppercase();
+    // Only ASCII letters from the tables above.
+    out.push_str(std::str::from_utf8(&text[..len]).unwrap_or_default());
 }
 
 /// The letter appended to a companion's name (`B`, `C`, `D`) by slot.

@@ -18,6 +18,8 @@
 //! to `log10` for values within 1e-12 of a power of ten, where the two
 //! could disagree.
 
+use super::text_buffer::{FIELD, TextSink};
+
 const POW10: [f64; 19] = [
     1e0, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15, 1e16,
     1e17, 1e18,
@@ -59,9 +61,22 @@ const POW10_WIDE: [f64; 65] = [
     1e28, 1e29, 1e30, 1e31, 1e32,
 ];
 
-/// Length of a field scratch array: a sign, 19 integer digits, a point
-/// and a 24-byte copy of the decimals fit.
-const FIELD: usize = 48;
+/// `10^k · (1 + 1e-12)` and `10^k · (1 − 1e-12)` for the entries of
+/// [`POW10_WIDE`]: the bounds [`decimal_exponent`] trusts, computed once
+/// (the same products it would compute).
+const POW10_ABOVE: [f64; 65] = scaled_table(1.0 + 1e-12);
+const POW10_BELOW: [f64; 65] = scaled_table(1.0 - 1e-12);
+
+const fn scaled_table(factor: f64) -> [f64; 65] {
+    let mut out = [0.0; 65];
+    let mut i = 0;
+    while i < 65 {
+        out[i] = POW10_WIDE[i] * factor;
+        i += 1;
+    }
+    out
+}
+
 /// Digits made for one integer: three groups of eight.
 const DIGITS: usize = 24;
 /// Eight ASCII zeros as a little-endian word.
@@ -133,64 +148,80 @@ fn trailing_zero_digits(digits: &[u8; 2 * DIGITS]) -> usize {
     8 + ((u64::from_le_bytes(w) ^ ZEROS).leading_zeros() / 8) as usize
 }
 
-/// Appends the first `len` bytes of `field` with one fixed-length copy.
-#[inline]
-fn append(buf: &mut Vec<u8>, field: &[u8; FIELD], len: usize) {
-    let start = buf.len();
-    buf.extend_from_slice(field);
-    buf.truncate(start + len);
+/// Writes an unsigned integer in decimal at `out[pos..]` and returns the
+/// position after it; needs 24 bytes of room.
+///
+/// Up to eight digits are one word shifted past its leading zeros; longer
+/// values are two or three such words stored side by side.
+#[inline(always)]
+pub fn put_u64(out: &mut [u8], pos: usize, v: u64) -> usize {
+    let n = digit_count(v);
+    let f = &mut out[pos..pos + 24];
+    if v < POW10_U64[8] {
+        let word = eight_digits(v as u32) >> (8 * (8 - n));
+        f[..8].copy_from_slice(&word.to_le_bytes());
+    } else if v < POW10_U64[16] {
+        let high = n - 8;
+        let word = eight_digits((v / POW10_U64[8]) as u32) >> (8 * (8 - high));
+        f[..8].copy_from_slice(&word.to_le_bytes());
+        f[high..high + 8].copy_from_slice(&eight_digits((v % POW10_U64[8]) as u32).to_le_bytes());
+    } else {
+        let top = n - 16;
+        let rest = v % POW10_U64[16];
+        let word = eight_digits((v / POW10_U64[16]) as u32) >> (8 * (8 - top));
+        f[..8].copy_from_slice(&word.to_le_bytes());
+        f[top..top + 8].copy_from_slice(&eight_digits((rest / POW10_U64[8]) as u32).to_le_bytes());
+        f[top + 8..top + 16]
+            .copy_from_slice(&eight_digits((rest % POW10_U64[8]) as u32).to_le_bytes());
+    }
+    pos + n
+}
+
+/// [`put_u64`] for a signed integer; needs 25 bytes of room.
+#[inline(always)]
+pub fn put_i64(out: &mut [u8], pos: usize, v: i64) -> usize {
+    out[pos] = b'-';
+    put_u64(out, pos + (v < 0) as usize, v.unsigned_abs())
 }
 
 /// Appends an unsigned integer in decimal.
 #[inline]
-pub fn push_u64(buf: &mut Vec<u8>, v: u64) {
-    let n = digit_count(v);
-    if v < POW10_U64[8] {
-        // In a register: drop the leading zeros, store one word.
-        let word = eight_digits(v as u32) >> (8 * (8 - n));
-        let start = buf.len();
-        buf.extend_from_slice(&word.to_le_bytes());
-        buf.truncate(start + n);
-        return;
-    }
-    let digits = digits_of(v);
-    let start = buf.len();
-    buf.extend_from_slice(&digits[DIGITS - n.min(DIGITS)..2 * DIGITS - n.min(DIGITS)]);
-    buf.truncate(start + n);
+pub fn push_u64<S: TextSink>(buf: &mut S, v: u64) {
+    buf.put(FIELD, |out| Some(put_u64(out, 0, v)));
 }
 
 /// Appends a signed integer in decimal.
 #[inline]
-pub fn push_i64(buf: &mut Vec<u8>, v: i64) {
-    if v < 0 {
-        buf.push(b'-');
-    }
-    push_u64(buf, v.unsigned_abs());
+pub fn push_i64<S: TextSink>(buf: &mut S, v: i64) {
+    buf.put(FIELD, |out| Some(put_i64(out, 0, v)));
 }
 
 /// `y` rounded half away from zero, for finite `0 <= y < 9e18`: the
 /// fraction `y - trunc(y)` is exact in binary, so this equals `y.round()`.
-#[inline]
+/// (Below 2^63 the signed conversions give the same integer and double as
+/// the unsigned ones, in one instruction each.)
+#[inline(always)]
 fn round_half_away(y: f64) -> u64 {
-    let t = y as u64;
-    t + ((y - t as f64) >= 0.5) as u64
+    let t = y as i64;
+    (t + ((y - t as f64) >= 0.5) as i64) as u64
 }
 
-/// A fixed-point field laid out in `field`: its length and, for trimming,
-/// the number of trailing zero digits of the scaled integer.
+/// A fixed-point field laid out in a window: its length and, for
+/// trimming, the number of trailing zero digits of the scaled integer.
 struct Laid {
     len: usize,
     zeros: usize,
 }
 
-/// Formats `x` (finite) with `d` decimals (at most 15) into `field`;
+/// Lays `x` (finite) out with `d` decimals (at most 15) in `field`;
 /// `None` when |x|·10^d is too large for the integer path.
 ///
-/// The scaled integer's zero-padded digits are copied twice with fixed
-/// lengths: the integer part (and whatever follows, overwritten next),
-/// then the `d` decimals after the point.
-#[inline]
-fn format_fixed(field: &mut [u8; FIELD], x: f64, d: usize) -> Option<Laid> {
+/// The common case (at most eight digits, at most seven decimals) is one
+/// word of zero-padded digits stored twice: shifted past its leading
+/// zeros for the integer part, then shifted to its last `d` digits after
+/// the point.
+#[inline(always)]
+fn lay_fixed(field: &mut [u8; FIELD], x: f64, d: usize) -> Option<Laid> {
     let y = x.abs() * POW10[d];
     if y >= 9.0e18 {
         return None;
@@ -198,34 +229,17 @@ fn format_fixed(field: &mut [u8; FIELD], x: f64, d: usize) -> Option<Laid> {
     let scaled = round_half_away(y);
     let neg = (x < 0.0 && scaled != 0) as usize;
     field[0] = b'-';
-    if scaled < POW10_U64[8] && d <= 7 {
-        // The common case, in registers: at most eight digits and a point
-        // fit one 128-bit word, stored once.
-        let n_digits = digit_count(scaled);
-        let n_int = if n_digits > d { n_digits - d } else { 1 };
-        let total = n_int + d;
-        let word = eight_digits(scaled as u32);
-        let zeros = ((word ^ ZEROS).leading_zeros() / 8) as usize;
-        let digits = (word >> (8 * (8 - total))) as u128;
-        let (text, len) = if d == 0 {
-            (digits, neg + total)
-        } else {
-            let int_mask = (1u128 << (8 * n_int)) - 1;
-            (
-                (digits & int_mask) | ((b'.' as u128) << (8 * n_int)) | ((digits & !int_mask) << 8),
-                neg + total + 1,
-            )
-        };
-        field[neg..neg + 16].copy_from_slice(&text.to_le_bytes());
-        return Some(Laid { len, zeros });
+    if scaled >= POW10_U64[8] || d > 7 {
+        return Some(lay_wide(field, scaled, neg, d));
     }
-    let digits = digits_of(scaled);
     let n_digits = digit_count(scaled);
     let n_int = if n_digits > d { n_digits - d } else { 1 };
+    // n_int + d = max(n_digits, d + 1) <= 8.
     let total = n_int + d;
-    let from = DIGITS - total;
-    field[neg..neg + DIGITS].copy_from_slice(&digits[from..from + DIGITS]);
-    let zeros = trailing_zero_digits(&digits);
+    let word = eight_digits(scaled as u32);
+    let zeros = ((word ^ ZEROS).leading_zeros() / 8) as usize;
+    let int_word = word >> (8 * (8 - total));
+    field[neg..neg + 8].copy_from_slice(&int_word.to_le_bytes());
     if d == 0 {
         return Some(Laid {
             len: neg + total,
@@ -234,56 +248,117 @@ fn format_fixed(field: &mut [u8; FIELD], x: f64, d: usize) -> Option<Laid> {
     }
     let point = neg + n_int;
     field[point] = b'.';
-    field[point + 1..point + 1 + DIGITS].copy_from_slice(&digits[DIGITS - d..2 * DIGITS - d]);
+    let frac_word = word >> (8 * (8 - d));
+    field[point + 1..point + 9].copy_from_slice(&frac_word.to_le_bytes());
     Some(Laid {
         len: point + 1 + d,
         zeros,
     })
 }
 
+/// [`lay_fixed`] for more than eight digits or more than seven decimals:
+/// the scaled integer's 24 zero-padded digits are copied twice with fixed
+/// lengths, the integer part (and whatever follows, overwritten next),
+/// then the `d` decimals after the point.
+#[inline(never)]
+fn lay_wide(field: &mut [u8; FIELD], scaled: u64, neg: usize, d: usize) -> Laid {
+    let digits = digits_of(scaled);
+    let n_digits = digit_count(scaled);
+    let n_int = if n_digits > d { n_digits - d } else { 1 };
+    let total = n_int + d;
+    let from = DIGITS - total;
+    field[neg..neg + DIGITS].copy_from_slice(&digits[from..from + DIGITS]);
+    let zeros = trailing_zero_digits(&digits);
+    if d == 0 {
+        return Laid {
+            len: neg + total,
+            zeros,
+        };
+    }
+    let point = neg + n_int;
+    field[point] = b'.';
+    field[point + 1..point + 1 + DIGITS].copy_from_slice(&digits[DIGITS - d..2 * DIGITS - d]);
+    Laid {
+        len: point + 1 + d,
+        zeros,
+    }
+}
+
+/// The [`FIELD`]-byte window at `out[pos..]`.
+#[inline(always)]
+fn window(out: &mut [u8], pos: usize) -> &mut [u8; FIELD] {
+    (&mut out[pos..pos + FIELD])
+        .try_into()
+        .expect("a FIELD-long range")
+}
+
+/// Writes `x` with exactly `decimals` digits after the point (at most 15)
+/// at `out[pos..]` and returns the position after it; needs [`FIELD`]
+/// bytes of room. NaN writes nothing (an empty field); infinities write
+/// `inf`/`-inf`. `None` (nothing written) when |x|·10^decimals is 9e18 or
+/// more: [`push_fixed`] then uses the standard formatter.
+#[inline(always)]
+pub fn put_fixed(out: &mut [u8], pos: usize, x: f64, decimals: usize) -> Option<usize> {
+    if !x.is_finite() {
+        return Some(put_non_finite(out, pos, x));
+    }
+    let laid = lay_fixed(window(out, pos), x, decimals.min(15))?;
+    Some(pos + laid.len)
+}
+
+/// Nothing for NaN, `inf` or `-inf`.
+#[cold]
+#[inline(never)]
+fn put_non_finite(out: &mut [u8], pos: usize, x: f64) -> usize {
+    if x.is_nan() {
+        return pos;
+    }
+    let text: &[u8] = if x > 0.0 { b"inf" } else { b"-inf" };
+    out[pos..pos + text.len()].copy_from_slice(text);
+    pos + text.len()
+}
+
 /// Appends `x` with exactly `decimals` digits after the point (at most 15).
 /// NaN appends nothing (an empty field); infinities append `inf`/`-inf`.
 #[inline]
-pub fn push_fixed(buf: &mut Vec<u8>, x: f64, decimals: usize) {
-    if !x.is_finite() {
-        if x.is_infinite() {
-            buf.extend_from_slice(if x > 0.0 { b"inf" } else { b"-inf" });
-        }
-        return;
-    }
-    let d = decimals.min(15);
-    let mut field = [0u8; FIELD];
-    match format_fixed(&mut field, x, d) {
-        Some(laid) => append(buf, &field, laid.len),
-        // Too large for the integer path: fall back to the standard formatter.
-        None => buf.extend_from_slice(format!("{x:.d$}").as_bytes()),
+pub fn push_fixed<S: TextSink>(buf: &mut S, x: f64, decimals: usize) {
+    if buf
+        .put(FIELD, |out| put_fixed(out, 0, x, decimals))
+        .is_none()
+    {
+        // Too large for the integer path: the standard formatter.
+        let d = decimals.min(15);
+        buf.push_bytes(format!("{x:.d$}").as_bytes());
     }
 }
 
 /// `floor(log10(a))` for finite `a > 0`, from the binary exponent and a
 /// table; values within 1e-12 of a power of ten, and those outside
 /// 1e-31 ..= 1e31, take `log10` itself so the result never differs from it.
-#[inline]
+#[inline(always)]
 fn decimal_exponent(a: f64) -> i32 {
     if (1e-31..1e31).contains(&a) {
         let e2 = ((a.to_bits() >> 52) & 0x7ff) as i32 - 1023;
         // floor(e2 · log10 2), with log10 2 ≈ 1233 / 4096: exact for |e2| < 1600.
         let mut k = (e2 * 1233) >> 12;
         k += (a >= POW10_WIDE[(k + 1 - WIDE_MIN) as usize]) as i32;
-        let (lo, hi) = (
-            POW10_WIDE[(k - WIDE_MIN) as usize],
-            POW10_WIDE[(k + 1 - WIDE_MIN) as usize],
-        );
-        if a > lo * (1.0 + 1e-12) && a < hi * (1.0 - 1e-12) {
+        let i = (k - WIDE_MIN) as usize;
+        if a > POW10_ABOVE[i] && a < POW10_BELOW[i + 1] {
             return k;
         }
     }
+    log10_floor(a)
+}
+
+#[cold]
+#[inline(never)]
+fn log10_floor(a: f64) -> i32 {
     a.log10().floor() as i32
 }
 
 /// The length of a laid-out field with `decimals > 0` once trailing zeros
 /// of the decimals, then a trailing point, are removed.
-#[inline]
+#[inline(always)]
 fn trimmed_len(laid: &Laid, decimals: usize) -> usize {
     if decimals == 0 {
         return laid.len;
@@ -292,45 +367,57 @@ fn trimmed_len(laid: &Laid, decimals: usize) -> usize {
     laid.len - zeros - (zeros == decimals) as usize
 }
 
-/// Appends `x` rounded to `sig` significant digits (1–15), without
-/// trailing zeros; scientific notation outside 1e-4 ..= 1e15.
-pub fn push_sig(buf: &mut Vec<u8>, x: f64, sig: usize) {
-    if !x.is_finite() {
-        push_fixed(buf, x, 0);
-        return;
-    }
+/// Writes `x` rounded to `sig` significant digits (1–15), without
+/// trailing zeros (scientific notation outside 1e-4 ..= 1e15), at
+/// `out[pos..]` and returns the position after it; needs [`FIELD`] bytes
+/// of room. `None` (nothing written) only where the integer path cannot
+/// hold the value, which no finite value reaches.
+#[inline(always)]
+pub fn put_sig(out: &mut [u8], pos: usize, x: f64, sig: usize) -> Option<usize> {
     if x == 0.0 {
-        buf.push(b'0');
-        return;
+        out[pos] = b'0';
+        return Some(pos + 1);
+    }
+    if !x.is_finite() {
+        return put_fixed(out, pos, x, 0);
     }
     let sig = sig.clamp(1, 15) as i32;
     let e = decimal_exponent(x.abs());
-    let mut field = [0u8; FIELD];
-    if (-4..15).contains(&e) {
-        let decimals = (sig - 1 - e).max(0) as usize;
-        let Some(laid) = format_fixed(&mut field, x, decimals.min(15)) else {
-            // Unreachable for |x| < 1e15 and decimals ≤ 18; kept for safety.
-            push_fixed(buf, x, decimals);
-            return;
-        };
-        // Decimals beyond 15 are never written, so trim as for 15.
-        let len = trimmed_len(&laid, decimals.min(15));
-        append(buf, &field, len);
-    } else {
-        let mut mantissa = x / 10f64.powi(e);
-        let mut e = e;
-        let scale = POW10[(sig - 1) as usize];
-        if (mantissa.abs() * scale).round() >= 10.0 * scale {
-            mantissa /= 10.0;
-            e += 1;
-        }
-        let d = (sig - 1) as usize;
-        match format_fixed(&mut field, mantissa, d) {
-            Some(laid) => append(buf, &field, trimmed_len(&laid, d)),
-            None => push_fixed(buf, mantissa, d),
-        }
-        buf.push(b'e');
-        push_i64(buf, e as i64);
+    if !(-4..15).contains(&e) {
+        return put_scientific(out, pos, x, sig, e);
+    }
+    // Decimals beyond 15 are never written, so trim as for 15.
+    let d = ((sig - 1 - e).max(0) as usize).min(15);
+    let laid = lay_fixed(window(out, pos), x, d)?;
+    Some(pos + trimmed_len(&laid, d))
+}
+
+/// The scientific-notation branch of [`put_sig`].
+#[inline(never)]
+fn put_scientific(out: &mut [u8], pos: usize, x: f64, sig: i32, e: i32) -> Option<usize> {
+    let mut mantissa = x / 10f64.powi(e);
+    let mut e = e;
+    let scale = POW10[(sig - 1) as usize];
+    if (mantissa.abs() * scale).round() >= 10.0 * scale {
+        mantissa /= 10.0;
+        e += 1;
+    }
+    let d = (sig - 1) as usize;
+    let laid = lay_fixed(window(out, pos), mantissa, d)?;
+    let end = pos + trimmed_len(&laid, d);
+    out[end] = b'e';
+    Some(put_i64(out, end + 1, e as i64))
+}
+
+/// Appends `x` rounded to `sig` significant digits (1–15), without
+/// trailing zeros; scientific notation outside 1e-4 ..= 1e15.
+#[inline]
+pub fn push_sig<S: TextSink>(buf: &mut S, x: f64, sig: usize) {
+    if buf.put(FIELD, |out| put_sig(out, 0, x, sig)).is_none() {
+        // Unreachable for finite values; kept for safety.
+        let e = x.abs().log10().floor() as i32;
+        let decimals = (sig.clamp(1, 15) as i32 - 1 - e).max(0) as usize;
+        push_fixed(buf, x, decimals);
     }
 }
 

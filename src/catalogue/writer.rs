@@ -1,6 +1,7 @@
 //! Writing a catalogue held in memory, format chosen by extension.
 
 use super::table::{Catalogue, RowView};
+use super::text_buffer::{TextBuffer, TextSink};
 use crate::error::{Error, Result};
 use std::io::Write;
 use std::path::Path;
@@ -42,7 +43,7 @@ impl Format {
 
     /// Appends one row.
     #[inline]
-    pub fn push_row(self, buf: &mut Vec<u8>, row: &RowView<'_>) {
+    pub fn push_row<S: TextSink>(self, buf: &mut S, row: &RowView<'_>) {
         match self {
             Format::Csv => super::csv_format::push_row(buf, row),
             Format::Jsonl => super::jsonl::push_row(buf, row),
@@ -55,8 +56,10 @@ impl Format {
 pub fn write_catalogue(cat: &Catalogue, path: &Path, force: bool) -> Result<()> {
     let format = Format::from_path(path, "--out")?;
     crate::atomic_file::write_atomic(path, force, |w| {
-        let mut buf = Vec::with_capacity(1 << 20);
-        format.push_header(&mut buf);
+        let mut head = Vec::new();
+        format.push_header(&mut head);
+        w.write_all(&head)?;
+        let mut buf = TextBuffer::with_capacity(1 << 20);
         for i in 0..cat.len() {
             let profile = cat.profile(i);
             let row = RowView {
@@ -71,10 +74,10 @@ pub fn write_catalogue(cat: &Catalogue, path: &Path, force: bool) -> Result<()> 
             };
             format.push_row(&mut buf, &row);
             if buf.len() > (1 << 20) - 4096 {
-                w.write_all(&buf)?;
+                w.write_all(buf.as_bytes())?;
                 buf.clear();
             }
         }
-        w.write_all(&buf)
+        w.write_all(buf.as_bytes())
     })
 }

@@ -33,6 +33,25 @@ struct Piece {
     k: f64,
     /// Number of objects in the piece (for the normalisation k).
     n: f64,
+    /// `lo^(1 − alpha)` and `1 / (1 − alpha)`, the inverse CDF's constant
+    /// parts, computed once (the same values `quantile` would compute).
+    lo_pow_s: f64,
+    inv_s: f64,
+}
+
+impl Piece {
+    fn new(lo: f64, hi: f64, alpha: f64, k: f64, n: f64) -> Piece {
+        let s = 1.0 - alpha;
+        Piece {
+            lo,
+            hi,
+            alpha,
+            k,
+            n,
+            lo_pow_s: lo.powf(s),
+            inv_s: 1.0 / s,
+        }
+    }
 }
 
 fn piece_integral(k: f64, alpha: f64, a: f64, b: f64) -> f64 {
@@ -85,13 +104,7 @@ impl Imf {
             let hi = edges[i + 1].min(m_max);
             if hi > lo {
                 let n = piece_integral(k, alphas[i], lo, hi);
-                pieces.push(Piece {
-                    lo,
-                    hi,
-                    alpha: alphas[i],
-                    k,
-                    n,
-                });
+                pieces.push(Piece::new(lo, hi, alphas[i], k, n));
             }
         }
         let total = pieces.iter().map(|p| p.n).sum();
@@ -119,13 +132,13 @@ impl Imf {
         if m_max > tail_lo {
             // Per unit mass: dN/dm = ξ / (m ln 10) = (A_h / ln 10) m^-2.3.
             let k = a_h / std::f64::consts::LN_10;
-            pieces.push(Piece {
-                lo: tail_lo,
-                hi: m_max,
-                alpha: 2.3,
+            pieces.push(Piece::new(
+                tail_lo,
+                m_max,
+                2.3,
                 k,
-                n: piece_integral(k, 2.3, tail_lo, m_max),
-            });
+                piece_integral(k, 2.3, tail_lo, m_max),
+            ));
         }
         let n_tail: f64 = pieces.iter().map(|p| p.n).sum();
         let total = n_ln + n_tail;
@@ -146,7 +159,7 @@ impl Imf {
                     p.lo * (target / p.k).exp()
                 } else {
                     let s = 1.0 - p.alpha;
-                    (p.lo.powf(s) + target * s / p.k).powf(1.0 / s)
+                    (p.lo_pow_s + target * s / p.k).powf(p.inv_s)
                 };
                 return m.clamp(p.lo, p.hi);
             }

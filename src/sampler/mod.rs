@@ -18,7 +18,7 @@ pub mod density;
 
 use crate::catalogue::designations::{cell_key, star_id, system_key};
 use crate::catalogue::names::{member_suffix, system_name};
-use crate::catalogue::{Catalogue, CatalogueMeta, Format, Origin, RowView};
+use crate::catalogue::{Catalogue, CatalogueMeta, Format, Origin, RowView, TextBuffer};
 use crate::error::{Error, Result};
 use crate::population::{MAX_MEMBERS, Member, Population};
 use crate::seed::{Stream, rng_for};
@@ -530,8 +530,8 @@ pub fn write_sector(
         // BufWriter's own buffer (flushed above).
         let file = w.get_mut();
         // Emptied buffers are reused, so pages are touched once, not per batch.
-        let pool: Mutex<Vec<Vec<u8>>> = Mutex::new(Vec::new());
-        let (tx, rx) = std::sync::mpsc::channel::<(usize, Vec<u8>, WriteReport)>();
+        let pool: Mutex<Vec<TextBuffer>> = Mutex::new(Vec::new());
+        let (tx, rx) = std::sync::mpsc::channel::<(usize, TextBuffer, WriteReport)>();
         let mut result = Ok(());
         // A sliding window: the pool generates and formats batches while
         // this thread writes the finished ones in batch order, so neither
@@ -546,7 +546,7 @@ pub fn write_sector(
                         .lock()
                         .ok()
                         .and_then(|mut p| p.pop())
-                        .unwrap_or_else(|| Vec::with_capacity(1 << 21));
+                        .unwrap_or_else(|| TextBuffer::with_capacity(1 << 21));
                     let mut r = WriteReport::default();
                     for linear in list[i].clone() {
                         plan.cell_rows(linear, &mut scratch, &mut |row| {
@@ -568,7 +568,7 @@ pub fn write_sector(
                 let Ok((i, buf, r)) = rx.recv() else { break };
                 ready.insert(i, (buf, r));
                 while let Some((mut buf, r)) = ready.remove(&next) {
-                    if let Err(e) = file.write_all(&buf) {
+                    if let Err(e) = file.write_all(buf.as_bytes()) {
                         result = Err(e);
                         break;
                     }
