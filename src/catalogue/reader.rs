@@ -224,6 +224,8 @@ const MISSING_HABITABLE: u8 = 8;
 
 struct Layout {
     cols: Vec<Col>,
+    /// The columns read, with their field index, in header order.
+    active: Vec<(usize, Col)>,
     names: Vec<String>,
     positions: Positions,
     /// Columns parsed and stored; the others are skipped.
@@ -233,13 +235,24 @@ struct Layout {
 impl Layout {
     /// The same layout reading every column.
     fn all_columns(&self) -> Layout {
+        let cols: Vec<Col> = self.names.iter().map(|n| column_of(n)).collect();
         Layout {
-            cols: self.names.iter().map(|n| column_of(n)).collect(),
+            active: active_columns(&cols),
+            cols,
             names: self.names.clone(),
             positions: self.positions,
             wanted: Columns::ALL,
         }
     }
+}
+
+/// The columns of `cols` that are read, with their field index.
+fn active_columns(cols: &[Col]) -> Vec<(usize, Col)> {
+    cols.iter()
+        .copied()
+        .enumerate()
+        .filter(|&(_, c)| c != Col::Ignored)
+        .collect()
 }
 
 /// Lays out a header for reading `wanted`. When the header lacks a wanted
@@ -282,6 +295,7 @@ fn make_layout(path: &Path, names: Vec<String>, wanted: Columns) -> Result<Layou
         });
     };
     Ok(Layout {
+        active: active_columns(&cols),
         cols,
         names,
         positions,
@@ -322,22 +336,27 @@ fn parse_f64(s: &str) -> Option<f64> {
         _ => (false, b),
     };
     let mut mantissa: u64 = 0;
-    let mut n_digits = 0;
-    let mut decimals = 0i32;
-    let mut seen_point = false;
     let mut i = 0;
-    while i < digits.len() {
-        let c = digits[i];
-        match c {
-            b'0'..=b'9' => {
-                mantissa = mantissa.wrapping_mul(10).wrapping_add((c - b'0') as u64);
-                n_digits += 1;
-                decimals += i32::from(seen_point);
-            }
-            b'.' if !seen_point => seen_point = true,
-            _ => break,
-        }
+    // Digits, then at most one point and more digits.
+    while i < digits.len() && digits[i].is_ascii_digit() {
+        mantissa = mantissa
+            .wrapping_mul(10)
+            .wrapping_add(u64::from(digits[i] - b'0'));
         i += 1;
+    }
+    let mut n_digits = i;
+    let mut decimals = 0i32;
+    if i < digits.len() && digits[i] == b'.' {
+        i += 1;
+        let from = i;
+        while i < digits.len() && digits[i].is_ascii_digit() {
+            mantissa = mantissa
+                .wrapping_mul(10)
+                .wrapping_add(u64::from(digits[i] - b'0'));
+            i += 1;
+        }
+        n_digits += i - from;
+        decimals = (i - from) as i32;
     }
     let mut exponent = 0i32;
     if i < digits.len() {
@@ -515,6 +534,17 @@ fn parse_record(
             ),
         ));
     }
+    parse_fields(layout, |k| fields[k], out)
+}
+
+/// Parses one record of the header's field count into `out`; `field(k)`
+/// is the raw text of field `k`, asked for the read columns only.
+#[inline]
+fn parse_fields<'f>(
+    layout: &Layout,
+    field: impl Fn(usize) -> &'f str,
+    out: &mut Partial,
+) -> std::result::Result<(), (String, String)> {
     let nan = f64::NAN;
     let (mut id, mut system) = (None, None);
     let mut name = "";
@@ -526,12 +556,8 @@ fn parse_record(
     let mut colour = None;
     let mut habitable = None;
     let mut origin = Origin::Imported;
-    for (k, raw) in fields.iter().enumerate() {
-        let col = layout.cols[k];
-        if col == Col::Ignored {
-            continue;
-        }
-        let s = raw.trim_ascii();
+    for &(k, col) in &layout.active {
+        let s = field(k).trim_ascii();
         let bad = |what: &str| (layout.names[k].clone(), format!("'{s}' is not {what}"));
         let number = || -> std::result::Result<f64, (String, String)> {
             if s.is_empty() {
@@ -791,25 +817,27 @@ fn parse_chunk(layout: &Layout, chunk: &str) -> std::result::Result<Partial, Row
         if commas.is_empty() && line.trim().is_empty() {
             return Ok(());
         }
-        fields.clear();
-        if commas.len() + 1 == layout.cols.len() {
-            let mut from = 0usize;
-            for (k, &col) in layout.cols.iter().enumerate() {
+        let parsed = if commas.len() + 1 == layout.cols.len() {
+            let commas = &commas[..];
+            let field = |k: usize| {
+                let from = if k == 0 {
+                    0
+                } else {
+                    commas[k - 1] as usize + 1
+                };
                 let to = commas.get(k).map_or(line.len(), |&c| c as usize);
                 // Cutting at ASCII bytes keeps every piece valid UTF-8.
-                fields.push(if col == Col::Ignored {
-                    ""
-                } else {
-                    &line[from..to]
-                });
-                from = to + 1;
-            }
+                &line[from..to]
+            };
+            parse_fields(layout, field, &mut out)
         } else {
             // The row's field count is wrong: split it plainly so the
             // error names the right column.
+            fields.clear();
             fields.extend(line.split(','));
-        }
-        parse_record(layout, &fields, &mut out).map_err(|(column, message)| RowError {
+            parse_record(layout, &fields, &mut out)
+        };
+        parsed.map_err(|(column, message)| RowError {
             line_in_chunk: line_no,
             column,
             message,
@@ -1771,7 +1799,26 @@ mod tests {
         ] {
             assert_eq!(parse_f64(s), s.parse::<f64>().ok(), "{s}");
         }
-        for s in ["1e", "1e+", "e5", "1.2.3", "1e5x", "--1"] {
+        for s in [
+            "1e",
+            "1e+",
+            "e5",
+            "1.2.3",
+            "1e5x",
+            "--1",
+            ".5",
+            "5.",
+            ".",
+            "-.5",
+            "+3.25",
+            "00012.500",
+            "-0.0",
+            "-344.573",
+            "12345678901234567890",
+            "1..2",
+            "1.e3",
+            "",
+        ] {
             assert_eq!(parse_f64(s), s.parse::<f64>().ok(), "{s}");
         }
     }
