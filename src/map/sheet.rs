@@ -193,10 +193,10 @@ fn class_colours(cat: &Catalogue, systems: &[Sys]) -> Vec<(char, Rgba)> {
     }
     // Whole-number sums, so the parallel order does not matter.
     let sums = systems
-        .par_iter()
-        .fold(
-            || [[0u64; 4]; 11],
-            |mut sums, s| {
+        .par_chunks(1 << 15)
+        .map(|part| {
+            let mut sums = [[0u64; 4]; 11];
+            for s in part {
                 let i = s.look as usize;
                 let letter = cat.class[i].letter() as usize;
                 if let Some(&k) = slot.get(letter).filter(|&&k| k != usize::MAX) {
@@ -206,9 +206,9 @@ fn class_colours(cat: &Catalogue, systems: &[Sys]) -> Vec<(char, Rgba)> {
                     sums[k][2] += u64::from(c[2]);
                     sums[k][3] += 1;
                 }
-                sums
-            },
-        )
+            }
+            sums
+        })
         .reduce(
             || [[0u64; 4]; 11],
             |mut a, b| {

@@ -155,26 +155,12 @@ struct Prepared<'a> {
     stars: Vec<Option<StarLayer>>,
 }
 
-/// Pixel rows of the strips a band's sprite stars are stamped in, one
-/// strip after the other, so that the rows being stamped stay in the
-/// core's cache (a whole band of an A3 sheet at 300 dpi is 2.5 MB).
-const STRIP_ROWS: u32 = 32;
-/// Strips per band.
-const STRIPS: usize = (BAND_ROWS / STRIP_ROWS) as usize;
-
 /// Stars of one `Item::Stars`, converted to pixels and binned by band.
 struct StarLayer {
     /// Per star: centre in pixels and radius in pixels.
     px: Vec<[f32; 3]>,
     /// Star indices per band, in star order.
     bins: Vec<Vec<u32>>,
-    /// Star indices per strip of [`STRIP_ROWS`] rows (band `b` has strips
-    /// `STRIPS * b ..`), in star order: the sprite stars of the band's bin
-    /// whose sprite has rows in the strip.
-    strip_bins: Vec<Vec<u32>>,
-    /// Bands whose bin holds a star drawn as a vector disc; they are drawn
-    /// star by star over the whole band.
-    vector_band: Vec<bool>,
     /// Sprites indexed by `sprite_index`.
     sprites: Vec<Option<Sprite>>,
     outline_px: f32,
@@ -203,16 +189,9 @@ fn sprite_index(step: usize, px: usize, py: usize) -> usize {
     (step * PHASES + py) * PHASES + px
 }
 
-/// Rows (and columns) of a sprite of radius step `step` on each side of
-/// its centre pixel.
-fn sprite_half(step: usize, outline_px: f32) -> i32 {
-    let r = step as f32 / RADIUS_STEPS_PER_PX;
-    (r + outline_px * 0.5 + 1.0).ceil() as i32
-}
-
 fn make_sprite(step: usize, px: usize, py: usize, outline_px: f32) -> Sprite {
     let r = step as f32 / RADIUS_STEPS_PER_PX;
-    let half = sprite_half(step, outline_px);
+    let half = (r + outline_px * 0.5 + 1.0).ceil() as i32;
     let size = (2 * half + 1) as usize;
     let cx = half as f32 + (px as f32 + 0.5) / PHASES as f32;
     let cy = half as f32 + (py as f32 + 0.5) / PHASES as f32;
@@ -398,8 +377,6 @@ impl StarLayer {
             .map(|(c, r)| [c[0] * px_per_mm, c[1] * px_per_mm, r * px_per_mm])
             .collect();
         let mut bins = vec![Vec::new(); bands];
-        let mut strip_bins = vec![Vec::new(); bands * STRIPS];
-        let mut vector_band = vec![false; bands];
         let mut used = Vec::new();
         for (i, p) in px.iter().enumerate() {
             if !(p[0].is_finite() && p[1].is_finite() && p[2].is_finite()) || p[2] <= 0.0 {
@@ -411,34 +388,16 @@ impl StarLayer {
             if lo >= bands {
                 continue;
             }
-            let hi = hi.min(bands - 1);
-            for bin in &mut bins[lo..=hi] {
+            for bin in &mut bins[lo..=hi.min(bands - 1)] {
                 bin.push(i as u32);
             }
             if p[2] <= SPRITE_MAX_RADIUS_PX {
                 let (fx, fy) = (p[0] - p[0].floor(), p[1] - p[1].floor());
-                let step = radius_step(p[2]);
-                let k = sprite_index(step, phase(fx), phase(fy));
+                let k = sprite_index(radius_step(p[2]), phase(fx), phase(fy));
                 if k >= used.len() {
                     used.resize(k + 1, false);
                 }
                 used[k] = true;
-                // The strips of the binned bands that the sprite's rows
-                // reach: the same rows as stamping it band by band.
-                let (iy, half) = (
-                    p[1].floor() as i64,
-                    i64::from(sprite_half(step, outline_px)),
-                );
-                let strip = i64::from(STRIP_ROWS);
-                let first = (iy - half).max(lo as i64 * i64::from(BAND_ROWS));
-                let last = (iy + half).min((hi as i64 + 1) * i64::from(BAND_ROWS) - 1);
-                if first <= last {
-                    for bin in &mut strip_bins[(first / strip) as usize..=(last / strip) as usize] {
-                        bin.push(i as u32);
-                    }
-                }
-            } else {
-                vector_band[lo..=hi].fill(true);
             }
         }
         let sprites = used
@@ -456,8 +415,6 @@ impl StarLayer {
         StarLayer {
             px,
             bins,
-            strip_bins,
-            vector_band,
             sprites,
             outline_px,
         }
@@ -480,41 +437,6 @@ impl StarLayer {
         let w = pm.width() as i32;
         let h = pm.height() as i32;
         let data = pm.data_mut();
-        let stroke = if self.outline_px > 0.0 {
-            outline.map(|o| o.color)
-        } else {
-            None
-        };
-        if !self.vector_band[band] {
-            // Strip by strip; a pixel lies in one strip, so it still takes
-            // the stars in star order.
-            for (j, strip) in self.strip_bins[band * STRIPS..(band + 1) * STRIPS]
-                .iter()
-                .enumerate()
-            {
-                let rows = (
-                    j as i32 * STRIP_ROWS as i32,
-                    (j as i32 + 1) * STRIP_ROWS as i32,
-                );
-                if rows.0 >= h {
-                    break;
-                }
-                for &i in strip {
-                    let i = i as usize;
-                    let [x, y, r] = self.px[i];
-                    let color = fills.get(i).copied().unwrap_or(Rgba::rgb(255, 255, 255));
-                    let (ix, iy) = (x.floor(), y.floor());
-                    let k = sprite_index(radius_step(r), phase(x - ix), phase(y - iy));
-                    let Some(sp) = self.sprites[k].as_ref() else {
-                        continue;
-                    };
-                    let ox = ix as i32 - sp.half;
-                    let oy = iy as i32 - sp.half - y0 as i32;
-                    stamp_sprite(data, w, (rows.0, rows.1.min(h)), ox, oy, sp, color, stroke);
-                }
-            }
-            return;
-        }
         for &i in bin {
             let i = i as usize;
             let [x, y, r] = self.px[i];
@@ -541,21 +463,25 @@ impl StarLayer {
             };
             let ox = ix as i32 - sp.half;
             let oy = iy as i32 - sp.half - y0 as i32;
-            stamp_sprite(data, w, (0, h), ox, oy, sp, color, stroke);
+            let stroke = if self.outline_px > 0.0 {
+                outline.map(|o| o.color)
+            } else {
+                None
+            };
+            stamp_sprite(data, w, h, ox, oy, sp, color, stroke);
         }
     }
 }
 
-/// Stamps a star sprite with its top-left corner at (`ox`, `oy`) into the
-/// pixel rows `rows.0..rows.1`: the fill in `fill`, then the outline in
-/// `stroke`, source-over, premultiplied; only the covered span of each
-/// row is visited. Same pixels as blending the two masks one after the
-/// other.
+/// Stamps a star sprite with its top-left corner at (`ox`, `oy`): the
+/// fill in `fill`, then the outline in `stroke`, source-over,
+/// premultiplied; only the covered span of each row is visited. Same
+/// pixels as blending the two masks one after the other.
 #[allow(clippy::too_many_arguments)]
 fn stamp_sprite(
     data: &mut [u8],
     w: i32,
-    rows: (i32, i32),
+    h: i32,
     ox: i32,
     oy: i32,
     sp: &Sprite,
@@ -563,8 +489,8 @@ fn stamp_sprite(
     stroke: Option<Rgba>,
 ) {
     let size = sp.size as i32;
-    let ya = oy.max(rows.0);
-    let yb = (oy + size).min(rows.1);
+    let ya = oy.max(0);
+    let yb = (oy + size).min(h);
     if ya >= yb || ox >= w || ox + size <= 0 {
         return;
     }
