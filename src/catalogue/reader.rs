@@ -864,16 +864,14 @@ fn parse_chunk(layout: &Layout, chunk: &str) -> std::result::Result<Partial, Row
         }
         pos += 8;
     }
-    for at in pos..b.len() {
-        if matches!(b[at], b',' | b'\n') {
+    for (at, &c) in b.iter().enumerate().skip(pos) {
+        if matches!(c, b',' | b'\n') {
             visit(at, &mut commas)?;
         }
     }
-    drop(visit);
     if line_start < b.len() {
         row(line_start, b.len(), &mut commas, line_no)?;
     }
-    drop(row);
     Ok(out)
 }
 
