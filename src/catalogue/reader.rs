@@ -224,6 +224,8 @@ const MISSING_HABITABLE: u8 = 8;
 
 struct Layout {
     cols: Vec<Col>,
+    /// The columns read, with their field index, in header order.
+    active: Vec<(usize, Col)>,
     names: Vec<String>,
     positions: Positions,
     /// Columns parsed and stored; the others are skipped.
@@ -233,13 +235,24 @@ struct Layout {
 impl Layout {
     /// The same layout reading every column.
     fn all_columns(&self) -> Layout {
+        let cols: Vec<Col> = self.names.iter().map(|n| column_of(n)).collect();
         Layout {
-            cols: self.names.iter().map(|n| column_of(n)).collect(),
+            active: active_columns(&cols),
+            cols,
             names: self.names.clone(),
             positions: self.positions,
             wanted: Columns::ALL,
         }
     }
+}
+
+/// The columns of `cols` that are read, with their field index.
+fn active_columns(cols: &[Col]) -> Vec<(usize, Col)> {
+    cols.iter()
+        .copied()
+        .enumerate()
+        .filter(|&(_, c)| c != Col::Ignored)
+        .collect()
 }
 
 /// Lays out a header for reading `wanted`. When the header lacks a wanted
@@ -282,11 +295,24 @@ fn make_layout(path: &Path, names: Vec<String>, wanted: Columns) -> Result<Layou
         });
     };
     Ok(Layout {
+        active: active_columns(&cols),
         cols,
         names,
         positions,
         wanted,
     })
+}
+
+/// Parses a whole number as `str::parse::<u64>` does: up to 19 plain
+/// digits (which cannot overflow) directly, anything else through the
+/// standard parser.
+#[inline]
+fn parse_u64(s: &str) -> Option<u64> {
+    let b = s.as_bytes();
+    if b.is_empty() || b.len() > 19 || !b.iter().all(u8::is_ascii_digit) {
+        return s.parse().ok();
+    }
+    Some(b.iter().fold(0u64, |v, &c| v * 10 + u64::from(c - b'0')))
 }
 
 /// Powers of ten that are exact in binary (10^22 is the largest).
@@ -310,22 +336,27 @@ fn parse_f64(s: &str) -> Option<f64> {
         _ => (false, b),
     };
     let mut mantissa: u64 = 0;
-    let mut n_digits = 0;
-    let mut decimals = 0i32;
-    let mut seen_point = false;
     let mut i = 0;
-    while i < digits.len() {
-        let c = digits[i];
-        match c {
-            b'0'..=b'9' => {
-                mantissa = mantissa.wrapping_mul(10).wrapping_add((c - b'0') as u64);
-                n_digits += 1;
-                decimals += i32::from(seen_point);
-            }
-            b'.' if !seen_point => seen_point = true,
-            _ => break,
-        }
+    // Digits, then at most one point and more digits.
+    while i < digits.len() && digits[i].is_ascii_digit() {
+        mantissa = mantissa
+            .wrapping_mul(10)
+            .wrapping_add(u64::from(digits[i] - b'0'));
         i += 1;
+    }
+    let mut n_digits = i;
+    let mut decimals = 0i32;
+    if i < digits.len() && digits[i] == b'.' {
+        i += 1;
+        let from = i;
+        while i < digits.len() && digits[i].is_ascii_digit() {
+            mantissa = mantissa
+                .wrapping_mul(10)
+                .wrapping_add(u64::from(digits[i] - b'0'));
+            i += 1;
+        }
+        n_digits += i - from;
+        decimals = (i - from) as i32;
     }
     let mut exponent = 0i32;
     if i < digits.len() {
@@ -466,6 +497,12 @@ fn parse_hex_colour(s: &str) -> Option<[u8; 3]> {
 }
 
 fn parse_bool(s: &str) -> Option<bool> {
+    // The words starloom writes, first.
+    match s {
+        "false" => return Some(false),
+        "true" => return Some(true),
+        _ => {}
+    }
     let is = |word: &str| s.eq_ignore_ascii_case(word);
     if is("true") || is("1") || is("yes") || is("y") {
         Some(true)
@@ -497,6 +534,17 @@ fn parse_record(
             ),
         ));
     }
+    parse_fields(layout, |k| fields[k], out)
+}
+
+/// Parses one record of the header's field count into `out`; `field(k)`
+/// is the raw text of field `k`, asked for the read columns only.
+#[inline]
+fn parse_fields<'f>(
+    layout: &Layout,
+    field: impl Fn(usize) -> &'f str,
+    out: &mut Partial,
+) -> std::result::Result<(), (String, String)> {
     let nan = f64::NAN;
     let (mut id, mut system) = (None, None);
     let mut name = "";
@@ -508,12 +556,8 @@ fn parse_record(
     let mut colour = None;
     let mut habitable = None;
     let mut origin = Origin::Imported;
-    for (k, raw) in fields.iter().enumerate() {
-        let col = layout.cols[k];
-        if col == Col::Ignored {
-            continue;
-        }
-        let s = raw.trim_ascii();
+    for &(k, col) in &layout.active {
+        let s = field(k).trim_ascii();
         let bad = |what: &str| (layout.names[k].clone(), format!("'{s}' is not {what}"));
         let number = || -> std::result::Result<f64, (String, String)> {
             if s.is_empty() {
@@ -525,7 +569,7 @@ fn parse_record(
         match col {
             Col::Id | Col::System => {
                 if !s.is_empty() {
-                    let v: u64 = s.parse().map_err(|_| bad("a whole number of 0 or more"))?;
+                    let v = parse_u64(s).ok_or_else(|| bad("a whole number of 0 or more"))?;
                     if col == Col::Id {
                         id = Some(v)
                     } else {
@@ -566,7 +610,15 @@ fn parse_record(
             }
             Col::Class => {
                 if !s.is_empty() {
-                    class = Some(ClassCode::from_str_lossy(s))
+                    // What `from_str_lossy` keeps of a short ASCII code is
+                    // the code itself.
+                    class = Some(if s.len() <= 15 && s.is_ascii() {
+                        let mut bytes = [0u8; 15];
+                        bytes[..s.len()].copy_from_slice(s.as_bytes());
+                        ClassCode::from_bytes(bytes, s.len())
+                    } else {
+                        ClassCode::from_str_lossy(s)
+                    })
                 }
             }
             Col::Mass => num[0] = number()?,
@@ -695,7 +747,8 @@ fn parse_record(
         c.kind.push(kind.unwrap_or(StarKind::MainSequence));
     }
     if w.contains(Columns::CLASS) {
-        c.class.push(class.unwrap_or(ClassCode::from_str_lossy("")));
+        c.class
+            .push(class.unwrap_or_else(|| ClassCode::from_str_lossy("")));
     }
     if w.contains(Columns::COLOUR) {
         c.color_rgb.push(colour.unwrap_or([255, 255, 255]));
@@ -721,7 +774,14 @@ const LOW7: u64 = 0x7f7f_7f7f_7f7f_7f7f;
 /// test, no carries between bytes; common practice, no source).
 #[inline]
 fn comma_bits(word: u64) -> u64 {
-    let x = word ^ (ONES * u64::from(b','));
+    byte_bits(word, b',')
+}
+
+/// The high bit of each byte of `word` that equals `byte` (as
+/// [`comma_bits`]).
+#[inline]
+fn byte_bits(word: u64, byte: u8) -> u64 {
+    let x = word ^ (ONES * u64::from(byte));
     let y = (x & LOW7).wrapping_add(LOW7);
     !(y | x | LOW7)
 }
@@ -733,106 +793,84 @@ fn word_at(b: &[u8], at: usize) -> u64 {
     u64::from_le_bytes(w)
 }
 
-/// Offset of the `n`-th comma (`n >= 1`) at or after `pos`, eight bytes at
-/// a time.
-#[inline]
-fn nth_comma(b: &[u8], mut pos: usize, mut n: usize) -> Option<usize> {
-    while pos + 8 <= b.len() {
-        let mut bits = comma_bits(word_at(b, pos));
-        let count = bits.count_ones() as usize;
-        if count >= n {
-            for _ in 1..n {
-                bits &= bits - 1;
-            }
-            return Some(pos + (bits.trailing_zeros() / 8) as usize);
-        }
-        n -= count;
-        pos += 8;
-    }
-    for (i, &c) in b[pos..].iter().enumerate() {
-        if c == b',' {
-            n -= 1;
-            if n == 0 {
-                return Some(pos + i);
-            }
-        }
-    }
-    None
-}
-
-/// Number of commas in `b`.
-fn count_commas(b: &[u8]) -> usize {
-    let mut words = b.chunks_exact(8);
-    let mut n: usize = words
-        .by_ref()
-        .map(|w| comma_bits(word_at(w, 0)).count_ones() as usize)
-        .sum();
-    n += words.remainder().iter().filter(|&&c| c == b',').count();
-    n
-}
-
-/// Cuts `line` into one field per header column, leaving the columns the
-/// layout skips empty without looking inside them. False when the line
-/// has more or fewer fields than the header.
-fn split_fields<'a>(line: &'a str, cols: &[Col], fields: &mut Vec<&'a str>) -> bool {
-    let b = line.as_bytes();
-    let n = cols.len();
-    let (mut k, mut pos) = (0usize, 0usize);
-    while k < n {
-        if cols[k] == Col::Ignored {
-            let run = cols[k..].iter().take_while(|&&c| c == Col::Ignored).count();
-            fields.extend(std::iter::repeat_n("", run));
-            if k + run == n {
-                return count_commas(&b[pos..]) == run - 1;
-            }
-            match nth_comma(b, pos, run) {
-                Some(c) => pos = c + 1,
-                None => return false,
-            }
-            k += run;
-        } else if k + 1 == n {
-            if memchr::memchr(b',', &b[pos..]).is_some() {
-                return false;
-            }
-            fields.push(&line[pos..]);
-            return true;
-        } else {
-            match memchr::memchr(b',', &b[pos..]) {
-                Some(c) => {
-                    // Cutting at ASCII bytes keeps every piece valid UTF-8.
-                    fields.push(&line[pos..pos + c]);
-                    pos += c + 1;
-                }
-                None => return false,
-            }
-            k += 1;
-        }
-    }
-    true
-}
-
 /// Parses the rows of `chunk` (whole lines of the body).
+///
+/// # Speed
+/// One pass over the chunk, eight bytes at a time, finds both the line
+/// ends and the commas, so each row is cut into fields without searching
+/// it again.
 fn parse_chunk(layout: &Layout, chunk: &str) -> std::result::Result<Partial, RowError> {
+    let b = chunk.as_bytes();
     let mut out = Partial::new(layout.wanted);
-    out.reserve(memchr::memchr_iter(b'\n', chunk.as_bytes()).count() + 1);
+    out.reserve(memchr::memchr_iter(b'\n', b).count() + 1);
     let mut fields: Vec<&str> = Vec::with_capacity(layout.cols.len() + 1);
-    for (n, line) in chunk.split_terminator('\n').enumerate() {
-        let line = line.strip_suffix('\r').unwrap_or(line);
-        if line.trim().is_empty() {
-            continue;
+    let mut commas: Vec<u32> = Vec::with_capacity(layout.cols.len() + 1);
+    let mut line_no = 0u64;
+    let mut line_start = 0usize;
+    let mut row = |start: usize, end: usize, commas: &mut Vec<u32>, line_no: u64| {
+        let mut line = &chunk[start..end];
+        if let Some(l) = line.strip_suffix('\r') {
+            line = l;
+            // A comma never follows the carriage return, so the offsets hold.
         }
-        fields.clear();
-        if !split_fields(line, &layout.cols, &mut fields) {
+        // A comma is no whitespace: only a line without one can be blank.
+        if commas.is_empty() && line.trim().is_empty() {
+            return Ok(());
+        }
+        let parsed = if commas.len() + 1 == layout.cols.len() {
+            let commas = &commas[..];
+            let field = |k: usize| {
+                let from = if k == 0 {
+                    0
+                } else {
+                    commas[k - 1] as usize + 1
+                };
+                let to = commas.get(k).map_or(line.len(), |&c| c as usize);
+                // Cutting at ASCII bytes keeps every piece valid UTF-8.
+                &line[from..to]
+            };
+            parse_fields(layout, field, &mut out)
+        } else {
             // The row's field count is wrong: split it plainly so the
             // error names the right column.
             fields.clear();
             fields.extend(line.split(','));
-        }
-        parse_record(layout, &fields, &mut out).map_err(|(column, message)| RowError {
-            line_in_chunk: n as u64,
+            parse_record(layout, &fields, &mut out)
+        };
+        parsed.map_err(|(column, message)| RowError {
+            line_in_chunk: line_no,
             column,
             message,
-        })?;
+        })
+    };
+    let mut pos = 0usize;
+    let mut visit = |at: usize, commas: &mut Vec<u32>| -> std::result::Result<(), RowError> {
+        if b[at] == b'\n' {
+            row(line_start, at, commas, line_no)?;
+            commas.clear();
+            line_start = at + 1;
+            line_no += 1;
+        } else {
+            commas.push((at - line_start) as u32);
+        }
+        Ok(())
+    };
+    while pos + 8 <= b.len() {
+        let w = word_at(b, pos);
+        let mut bits = comma_bits(w) | byte_bits(w, b'\n');
+        while bits != 0 {
+            visit(pos + (bits.trailing_zeros() / 8) as usize, &mut commas)?;
+            bits &= bits - 1;
+        }
+        pos += 8;
+    }
+    for (at, &c) in b.iter().enumerate().skip(pos) {
+        if matches!(c, b',' | b'\n') {
+            visit(at, &mut commas)?;
+        }
+    }
+    if line_start < b.len() {
+        row(line_start, b.len(), &mut commas, line_no)?;
     }
     Ok(out)
 }
@@ -1080,18 +1118,30 @@ fn read_csv_streamed_in(
             return Ok(None);
         };
         let pieces = (len - body_start).div_ceil(piece_bytes);
+        // Piece buffers go back to a pool, so that only about one per
+        // thread is ever allocated (and its pages first touched).
+        let pool = std::sync::Mutex::new(Vec::<Vec<u8>>::new());
         let read_pieces = |layout: &Layout| -> Vec<std::result::Result<Partial, PieceError>> {
             (0..pieces)
                 .into_par_iter()
-                .map_init(Vec::new, |buf, k| {
+                .map(|k| {
                     let piece = Piece {
                         start: body_start + k * piece_bytes,
                         first: k == 0,
                         piece_bytes,
                         tail_bytes,
                     };
-                    read_piece(&file, len, &piece, buf)
-                        .and_then(|(from, lines)| parse_piece(layout, from, lines))
+                    let mut buf = pool
+                        .lock()
+                        .map(|mut p| p.pop())
+                        .unwrap_or_default()
+                        .unwrap_or_default();
+                    let parsed = read_piece(&file, len, &piece, &mut buf)
+                        .and_then(|(from, lines)| parse_piece(layout, from, lines));
+                    if let Ok(mut p) = pool.lock() {
+                        p.push(buf);
+                    }
+                    parsed
                 })
                 .collect()
         };
@@ -1747,29 +1797,97 @@ mod tests {
         ] {
             assert_eq!(parse_f64(s), s.parse::<f64>().ok(), "{s}");
         }
-        for s in ["1e", "1e+", "e5", "1.2.3", "1e5x", "--1"] {
+        for s in [
+            "1e",
+            "1e+",
+            "e5",
+            "1.2.3",
+            "1e5x",
+            "--1",
+            ".5",
+            "5.",
+            ".",
+            "-.5",
+            "+3.25",
+            "00012.500",
+            "-0.0",
+            "-344.573",
+            "12345678901234567890",
+            "1..2",
+            "1.e3",
+            "",
+        ] {
             assert_eq!(parse_f64(s), s.parse::<f64>().ok(), "{s}");
         }
     }
 
     #[test]
-    fn comma_scanning_matches_a_plain_search() {
-        let line = b"a,,bc,defghijk,lmnopqrstu,v,w,xyz0123456789,,end";
-        let commas: Vec<usize> = (0..line.len()).filter(|&i| line[i] == b',').collect();
-        for start in 0..line.len() {
-            let after: Vec<usize> = commas.iter().copied().filter(|&c| c >= start).collect();
-            for n in 1..=after.len() + 1 {
-                assert_eq!(
-                    nth_comma(line, start, n),
-                    after.get(n - 1).copied(),
-                    "{start} {n}"
-                );
+    fn byte_scanning_matches_a_plain_search() {
+        let line = b"a,,bc,defghijk,lmnopqrstu,v,w,xyz0123456789,,end\n+-\xac\x2c\xc3\xa9,\n\n";
+        for start in 0..line.len() - 8 {
+            let w = word_at(line, start);
+            for byte in [b',', b'\n'] {
+                let want: Vec<usize> = (0..8).filter(|&i| line[start + i] == byte).collect();
+                let mut bits = byte_bits(w, byte);
+                let mut got = Vec::new();
+                while bits != 0 {
+                    got.push((bits.trailing_zeros() / 8) as usize);
+                    bits &= bits - 1;
+                }
+                assert_eq!(got, want, "{start} {byte}");
             }
-            assert_eq!(count_commas(&line[start..]), after.len());
         }
-        // Bytes next to a comma in value (0x2b, 0x2d) and 0x80+ are no commas.
-        let odd = "+-\u{ac}\u{2c}é,x".as_bytes();
-        assert_eq!(count_commas(odd), 2);
+    }
+
+    #[test]
+    fn chunks_cut_lines_as_a_plain_split_does() {
+        let layout = make_layout(
+            Path::new("t.csv"),
+            ["name", "x_ly", "y_ly", "z_ly"].map(String::from).to_vec(),
+            Columns::ALL,
+        )
+        .unwrap();
+        for text in [
+            "",
+            "\n",
+            "a,1,2,3",
+            "a,1,2,3\n",
+            "a,1,2,3\r\n\n  \nbcdefghijkl,4,5,6\r\nc,7,8,9",
+            "\n\n\nlong name here,1.5,2.5,3.5\n",
+        ] {
+            let p = parse_chunk(&layout, text).ok().expect("parses");
+            let want: Vec<&str> = text
+                .split_terminator('\n')
+                .map(|l| l.strip_suffix('\r').unwrap_or(l))
+                .filter(|l| !l.trim().is_empty())
+                .map(|l| l.split(',').next().unwrap())
+                .collect();
+            assert_eq!(p.cat.name, want, "{text:?}");
+        }
+        // A short row is reported on its own line of the chunk.
+        let e = parse_chunk(&layout, "a,1,2,3\n\nb,1,2\n")
+            .err()
+            .expect("fails");
+        assert_eq!(e.line_in_chunk, 2);
+        assert_eq!(e.column, "z_ly");
+    }
+
+    #[test]
+    fn whole_numbers_parse_as_the_standard_parser_does() {
+        for s in [
+            "0",
+            "007",
+            "+5",
+            "-5",
+            "18446744073709551615",
+            "18446744073709551616",
+            "9999999999999999999",
+            "1 2",
+            "1.0",
+            "",
+        ] {
+            assert_eq!(parse_u64(s), s.parse::<u64>().ok(), "{s}");
+        }
     }
 
     /// A catalogue in our own format, several kinds, with exponents.

@@ -37,7 +37,6 @@ pub const CATALOGUE_COLUMNS: Columns = Columns::NAME
     .with(Columns::CLASS)
     .with(Columns::COLOUR)
     .with(Columns::LUMINOSITY)
-    .with(Columns::TEFF)
     .with(Columns::HABITABLE_HOST)
     .with(Columns::ORIGIN);
 

@@ -186,17 +186,40 @@ fn select_systems(cat: &Catalogue, opts: &MapOptions) -> Vec<Sys> {
 /// Mean colour of each spectral class letter among the drawn systems.
 fn class_colours(cat: &Catalogue, systems: &[Sys]) -> Vec<(char, Rgba)> {
     const ORDER: &str = "OBAFGKMLTYD";
-    let mut sums = [[0u64; 4]; 11];
-    for s in systems {
-        let i = s.look as usize;
-        if let Some(k) = ORDER.find(cat.class[i].letter()) {
-            let c = cat.color_rgb[i];
-            sums[k][0] += u64::from(c[0]);
-            sums[k][1] += u64::from(c[1]);
-            sums[k][2] += u64::from(c[2]);
-            sums[k][3] += 1;
-        }
+    // Slot of each ASCII letter in ORDER (the letters are ASCII).
+    let mut slot = [usize::MAX; 128];
+    for (k, b) in ORDER.bytes().enumerate() {
+        slot[usize::from(b)] = k;
     }
+    // Whole-number sums, so the parallel order does not matter.
+    let sums = systems
+        .par_chunks(1 << 15)
+        .map(|part| {
+            let mut sums = [[0u64; 4]; 11];
+            for s in part {
+                let i = s.look as usize;
+                let letter = cat.class[i].letter() as usize;
+                if let Some(&k) = slot.get(letter).filter(|&&k| k != usize::MAX) {
+                    let c = cat.color_rgb[i];
+                    sums[k][0] += u64::from(c[0]);
+                    sums[k][1] += u64::from(c[1]);
+                    sums[k][2] += u64::from(c[2]);
+                    sums[k][3] += 1;
+                }
+            }
+            sums
+        })
+        .reduce(
+            || [[0u64; 4]; 11],
+            |mut a, b| {
+                for (x, y) in a.iter_mut().zip(b) {
+                    for (u, v) in x.iter_mut().zip(y) {
+                        *u += v;
+                    }
+                }
+                a
+            },
+        );
     ORDER
         .chars()
         .zip(sums)
@@ -813,21 +836,36 @@ impl Ctx<'_> {
             let l = cat.luminosity_lsun[self.systems[v.sys as usize].look as usize];
             if l.is_nan() { 1.0 } else { l }
         };
-        // Candidates with their sort keys, gathered in parallel (order
-        // kept); the few brightest are then picked and sorted.
-        let mut keyed: Vec<(f64, u32, u32)> = vis
-            .par_iter()
-            .enumerate()
-            .filter_map(|(i, v)| {
-                let s = &self.systems[v.sys as usize];
-                let wanted = !cat.name[s.row as usize].is_empty()
-                    && (mode != LabelMode::Habitable || s.habitable);
-                wanted.then(|| (lum(v), v.sys, i as u32))
-            })
-            .collect();
         let keep = budget.saturating_mul(6).min(50_000);
         let by_key =
             |a: &(f64, u32, u32), b: &(f64, u32, u32)| b.0.total_cmp(&a.0).then(a.1.cmp(&b.1));
+        // Candidates with their sort keys, gathered in parallel slices that
+        // each keep only their `keep` best: the key orders candidates
+        // strictly (systems are unique), so the best of all are among
+        // them, whatever the slices. The few brightest are then picked
+        // and sorted.
+        const SLICE: usize = 1 << 16;
+        let mut keyed: Vec<(f64, u32, u32)> = vis
+            .par_chunks(SLICE)
+            .enumerate()
+            .flat_map_iter(|(c, part)| {
+                let mut best: Vec<(f64, u32, u32)> = part
+                    .iter()
+                    .enumerate()
+                    .filter_map(|(j, v)| {
+                        let s = &self.systems[v.sys as usize];
+                        let wanted = !cat.name[s.row as usize].is_empty()
+                            && (mode != LabelMode::Habitable || s.habitable);
+                        wanted.then(|| (lum(v), v.sys, (c * SLICE + j) as u32))
+                    })
+                    .collect();
+                if best.len() > keep {
+                    best.select_nth_unstable_by(keep, by_key);
+                    best.truncate(keep);
+                }
+                best
+            })
+            .collect();
         if keyed.len() > keep {
             keyed.select_nth_unstable_by(keep, by_key);
             keyed.truncate(keep);
