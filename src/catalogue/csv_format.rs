@@ -138,7 +138,7 @@ fn put_row(out: &mut [u8], row: &RowView<'_>) -> Option<usize> {
     out[pos] = b',';
     pos = put_bytes(out, pos + 1, p.kind.as_str().as_bytes());
     out[pos] = b',';
-    let class = p.class.as_str().as_bytes();
+    let class = p.class.as_bytes();
     if needs_quotes(class) {
         return None;
     }

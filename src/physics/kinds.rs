@@ -191,6 +191,13 @@ impl ClassCode {
         }
     }
 
+    /// The code's ASCII bytes (the same as `as_str().as_bytes()`, without
+    /// checking the encoding again).
+    #[inline]
+    pub fn as_bytes(&self) -> &[u8] {
+        &self.bytes[..self.len as usize]
+    }
+
     /// The code as text.
     pub fn as_str(&self) -> &str {
         // Only ASCII bytes are ever stored.
