@@ -55,6 +55,22 @@
 //!   `dd`, and pages that are dirty or fresh to the VM make it vary
 //!   from run to run: the 6 s target for 10^7 is not met, mostly for that;
 //! - peak RSS 13.5-17.7 MB (under 18 B/star) for 10^6 and 10^7.
+//!
+//! Measured 2026-12-02 17:00-17:15 UTC on a different 2-core VM (AMD EPYC,
+//! 1 MB L2), idle apart from these runs (load average 0.2-1.2, mostly the
+//! runs themselves), main with `pop`, the shorter physics chains and the
+//! catalogue written in 256 KiB `write` calls (`WRITE_PIECE_BYTES` in
+//! src/sampler/mod.rs; before, one call per batch of a few MiB), CLI as
+//! above, previous output removed and `sync`ed first:
+//! - 10^6: 0.41-0.56 s wall over 14 runs (0.75 s once, the first run
+//!   after a 2.75 GB file), 0.70-0.94 s user, 0.04-0.12 s system;
+//! - 10^7, old and new writes interleaved, same bytes (md5): 256 KiB
+//!   writes 5.38-5.48 s wall, 7.9-9.0 s user, 1.3-2.4 s system; one call
+//!   per batch 5.99-6.58 s wall, 2.7-3.2 s system;
+//! - this bench (10^6, the read-back, then 10^7 in one process, no `sync`
+//!   between): 10^6 0.51-0.56 s, 10^7 6.1-8.2 s (the 10^7 write follows
+//!   the 10^6 file's dirty pages);
+//! - peak RSS 11-17.7 MB.
 
 use starloom::catalogue::reader::read_catalogue;
 use starloom::sampler::write_sector;
