@@ -459,6 +459,37 @@ impl Partial {
         self.no_system.reserve(rows);
     }
 
+    /// Empties every column, keeping the allocations.
+    fn clear(&mut self) {
+        let c = &mut self.cat;
+        c.id.clear();
+        c.system.clear();
+        c.name.clear();
+        c.x_ly.clear();
+        c.y_ly.clear();
+        c.z_ly.clear();
+        c.kind.clear();
+        c.class.clear();
+        c.mass_msun.clear();
+        c.initial_mass_msun.clear();
+        c.radius_rsun.clear();
+        c.luminosity_lsun.clear();
+        c.teff_k.clear();
+        c.age_gyr.clear();
+        c.lifetime_gyr.clear();
+        c.hz_inner_au.clear();
+        c.hz_outer_au.clear();
+        c.color_rgb.clear();
+        c.abs_mag_v.clear();
+        c.separation_au.clear();
+        c.period_days.clear();
+        c.habitable_host.clear();
+        c.origin.clear();
+        self.missing.clear();
+        self.no_id.clear();
+        self.no_system.clear();
+    }
+
     fn new(wanted: Columns) -> Partial {
         Partial {
             wanted,
@@ -800,8 +831,20 @@ fn word_at(b: &[u8], at: usize) -> u64 {
 /// ends and the commas, so each row is cut into fields without searching
 /// it again.
 fn parse_chunk(layout: &Layout, chunk: &str) -> std::result::Result<Partial, RowError> {
-    let b = chunk.as_bytes();
     let mut out = Partial::new(layout.wanted);
+    parse_chunk_into(layout, chunk, &mut out)?;
+    Ok(out)
+}
+
+/// [`parse_chunk`] into `out` (empty, for `layout.wanted`), whose
+/// allocations may be reused from an earlier chunk.
+fn parse_chunk_into(
+    layout: &Layout,
+    chunk: &str,
+    out: &mut Partial,
+) -> std::result::Result<(), RowError> {
+    debug_assert!(out.cat.id.is_empty() && out.wanted == layout.wanted);
+    let b = chunk.as_bytes();
     out.reserve(memchr::memchr_iter(b'\n', b).count() + 1);
     let mut fields: Vec<&str> = Vec::with_capacity(layout.cols.len() + 1);
     let mut commas: Vec<u32> = Vec::with_capacity(layout.cols.len() + 1);
@@ -829,13 +872,13 @@ fn parse_chunk(layout: &Layout, chunk: &str) -> std::result::Result<Partial, Row
                 // Cutting at ASCII bytes keeps every piece valid UTF-8.
                 &line[from..to]
             };
-            parse_fields(layout, field, &mut out)
+            parse_fields(layout, field, out)
         } else {
             // The row's field count is wrong: split it plainly so the
             // error names the right column.
             fields.clear();
             fields.extend(line.split(','));
-            parse_record(layout, &fields, &mut out)
+            parse_record(layout, &fields, out)
         };
         parsed.map_err(|(column, message)| RowError {
             line_in_chunk: line_no,
@@ -872,7 +915,7 @@ fn parse_chunk(layout: &Layout, chunk: &str) -> std::result::Result<Partial, Row
     if line_start < b.len() {
         row(line_start, b.len(), &mut commas, line_no)?;
     }
-    Ok(out)
+    Ok(())
 }
 
 /// Reads a catalogue file, choosing the format by extension (`.jsonl`
@@ -1118,11 +1161,20 @@ fn read_csv_streamed_in(
             return Ok(None);
         };
         let pieces = (len - body_start).div_ceil(piece_bytes);
-        // Piece buffers go back to a pool, so that only about one per
-        // thread is ever allocated (and its pages first touched).
+        // Piece buffers and parsed pieces go back to pools, so that only a
+        // batch's worth of them is ever allocated (and its pages first
+        // touched); the rows are appended to `all` batch by batch.
         let pool = std::sync::Mutex::new(Vec::<Vec<u8>>::new());
-        let read_pieces = |layout: &Layout| -> Vec<std::result::Result<Partial, PieceError>> {
-            (0..pieces)
+        let parsed_pool = std::sync::Mutex::new(Vec::<Partial>::new());
+        let batch = (4 * rayon::current_num_threads()).max(8);
+        let mut layout = layout;
+        let mut restarted = false;
+        let mut all = Partial::new(layout.wanted);
+        let mut k0 = 0;
+        while k0 < pieces {
+            let k1 = (k0 + batch).min(pieces);
+            let layout_now = &layout;
+            let results: Vec<std::result::Result<Partial, PieceError>> = (k0..k1)
                 .into_par_iter()
                 .map(|k| {
                     let piece = Piece {
@@ -1136,43 +1188,61 @@ fn read_csv_streamed_in(
                         .map(|mut p| p.pop())
                         .unwrap_or_default()
                         .unwrap_or_default();
+                    let mut out = parsed_pool
+                        .lock()
+                        .map(|mut p| p.pop())
+                        .unwrap_or_default()
+                        .unwrap_or_else(|| Partial::new(layout_now.wanted));
                     let parsed = read_piece(&file, len, &piece, &mut buf)
-                        .and_then(|(from, lines)| parse_piece(layout, from, lines));
+                        .and_then(|(from, lines)| parse_piece(layout_now, from, lines, &mut out));
                     if let Ok(mut p) = pool.lock() {
                         p.push(buf);
                     }
-                    parsed
+                    parsed.map(|()| out)
                 })
-                .collect()
-        };
-        let mut results = read_pieces(&layout);
-        let needs_full = results
-            .iter()
-            .any(|r| matches!(r, Err(PieceError::Row(_, e)) if e.message == NEEDS_FULL_READ));
-        if needs_full {
-            results = read_pieces(&layout.all_columns());
-        }
-        let mut parts = Vec::with_capacity(pieces);
-        for r in results {
-            match r {
-                Ok(p) => parts.push(p),
-                Err(PieceError::Quoted) => return Ok(None),
-                Err(PieceError::Io(e)) => return Err(missing(e)),
-                Err(PieceError::Utf8(at)) => return Err(not_utf8(path, at as usize)),
-                Err(PieceError::Row(start, e)) => {
-                    let bytes = std::fs::read(path).map_err(missing)?;
-                    let end = (start as usize).min(bytes.len());
-                    let before = memchr::memchr_iter(b'\n', &bytes[body_start..end]).count();
-                    return Err(Error::BadRow {
-                        path: path.to_path_buf(),
-                        line: 2 + before as u64 + e.line_in_chunk,
-                        column: e.column,
-                        message: e.message,
-                    });
+                .collect();
+            let needs_full = results
+                .iter()
+                .any(|r| matches!(r, Err(PieceError::Row(_, e)) if e.message == NEEDS_FULL_READ));
+            if needs_full && !restarted {
+                // A derivable column is missing somewhere: read every
+                // column of every row, from the start.
+                restarted = true;
+                layout = layout.all_columns();
+                all = Partial::new(layout.wanted);
+                if let Ok(mut p) = parsed_pool.lock() {
+                    p.clear();
+                }
+                k0 = 0;
+                continue;
+            }
+            let mut parts = Vec::with_capacity(results.len());
+            for r in results {
+                match r {
+                    Ok(p) => parts.push(p),
+                    Err(PieceError::Quoted) => return Ok(None),
+                    Err(PieceError::Io(e)) => return Err(missing(e)),
+                    Err(PieceError::Utf8(at)) => return Err(not_utf8(path, at as usize)),
+                    Err(PieceError::Row(start, e)) => {
+                        let bytes = std::fs::read(path).map_err(missing)?;
+                        let end = (start as usize).min(bytes.len());
+                        let before = memchr::memchr_iter(b'\n', &bytes[body_start..end]).count();
+                        return Err(Error::BadRow {
+                            path: path.to_path_buf(),
+                            line: 2 + before as u64 + e.line_in_chunk,
+                            column: e.column,
+                            message: e.message,
+                        });
+                    }
                 }
             }
+            append_partials(&mut all, &mut parts);
+            if let Ok(mut p) = parsed_pool.lock() {
+                p.extend(parts);
+            }
+            k0 = k1;
         }
-        Ok(Some(concat_partials(parts)))
+        Ok(Some(all))
     }
     #[cfg(not(unix))]
     {
@@ -1237,17 +1307,70 @@ fn parse_piece(
     layout: &Layout,
     from: u64,
     lines: &[u8],
-) -> std::result::Result<Partial, PieceError> {
+    out: &mut Partial,
+) -> std::result::Result<(), PieceError> {
     if memchr::memchr(b'"', lines).is_some() {
         return Err(PieceError::Quoted);
     }
     let text =
         std::str::from_utf8(lines).map_err(|e| PieceError::Utf8(from + e.valid_up_to() as u64))?;
-    parse_chunk(layout, text).map_err(|e| PieceError::Row(from, e))
+    parse_chunk_into(layout, text, out).map_err(|e| PieceError::Row(from, e))
 }
 
 /// Joins chunk results in order, each column copied once into a vector of
 /// the final size, columns in parallel.
+/// Appends the rows of `parts`, in order, to `all` (same wanted columns)
+/// and leaves each part empty with its allocations kept for reuse.
+fn append_partials(all: &mut Partial, parts: &mut [Partial]) {
+    fn add<T: Clone + Send + Sync>(
+        out: &mut Vec<T>,
+        parts: &[Partial],
+        col: impl Fn(&Partial) -> &Vec<T>,
+    ) {
+        out.reserve(parts.iter().map(|p| col(p).len()).sum());
+        for p in parts {
+            out.extend_from_slice(col(p));
+        }
+    }
+    let ps = &*parts;
+    let c = &mut all.cat;
+    rayon::scope(|s| {
+        s.spawn(|_| add(&mut c.id, ps, |p| &p.cat.id));
+        s.spawn(|_| add(&mut c.system, ps, |p| &p.cat.system));
+        s.spawn(|_| add(&mut c.x_ly, ps, |p| &p.cat.x_ly));
+        s.spawn(|_| add(&mut c.y_ly, ps, |p| &p.cat.y_ly));
+        s.spawn(|_| add(&mut c.z_ly, ps, |p| &p.cat.z_ly));
+        s.spawn(|_| add(&mut c.kind, ps, |p| &p.cat.kind));
+        s.spawn(|_| add(&mut c.class, ps, |p| &p.cat.class));
+        s.spawn(|_| add(&mut c.mass_msun, ps, |p| &p.cat.mass_msun));
+        s.spawn(|_| add(&mut c.initial_mass_msun, ps, |p| &p.cat.initial_mass_msun));
+        s.spawn(|_| add(&mut c.radius_rsun, ps, |p| &p.cat.radius_rsun));
+        s.spawn(|_| add(&mut c.luminosity_lsun, ps, |p| &p.cat.luminosity_lsun));
+        s.spawn(|_| add(&mut c.teff_k, ps, |p| &p.cat.teff_k));
+        s.spawn(|_| add(&mut c.age_gyr, ps, |p| &p.cat.age_gyr));
+        s.spawn(|_| add(&mut c.lifetime_gyr, ps, |p| &p.cat.lifetime_gyr));
+        s.spawn(|_| add(&mut c.hz_inner_au, ps, |p| &p.cat.hz_inner_au));
+        s.spawn(|_| add(&mut c.hz_outer_au, ps, |p| &p.cat.hz_outer_au));
+        s.spawn(|_| add(&mut c.color_rgb, ps, |p| &p.cat.color_rgb));
+        s.spawn(|_| add(&mut c.abs_mag_v, ps, |p| &p.cat.abs_mag_v));
+        s.spawn(|_| add(&mut c.separation_au, ps, |p| &p.cat.separation_au));
+        s.spawn(|_| add(&mut c.period_days, ps, |p| &p.cat.period_days));
+        s.spawn(|_| add(&mut c.habitable_host, ps, |p| &p.cat.habitable_host));
+        s.spawn(|_| add(&mut c.origin, ps, |p| &p.cat.origin));
+    });
+    add(&mut all.missing, ps, |p| &p.missing);
+    add(&mut all.no_id, ps, |p| &p.no_id);
+    add(&mut all.no_system, ps, |p| &p.no_system);
+    // Names move (no copy of the strings).
+    all.cat
+        .name
+        .reserve(parts.iter().map(|p| p.cat.name.len()).sum());
+    for p in parts.iter_mut() {
+        all.cat.name.append(&mut p.cat.name);
+        p.clear();
+    }
+}
+
 fn concat_partials(parts: Vec<Partial>) -> Partial {
     fn cat<T: Clone + Send + Sync>(parts: &[Partial], col: impl Fn(&Partial) -> &Vec<T>) -> Vec<T> {
         let n = parts.iter().map(|p| col(p).len()).sum();
@@ -2011,6 +2134,25 @@ mod tests {
             Ok(_) => panic!("a bad row must fail"),
         };
         assert!(err.contains("line 252") && err.contains("y_ly"), "{err}");
+        // A derivable column left empty in a row of a late batch: the
+        // streamed read starts again with every column and still matches.
+        let mut lines: Vec<String> = text.lines().map(str::to_string).collect();
+        let mut fields: Vec<&str> = lines[350].split(',').collect();
+        let class_at = lines[0].split(',').position(|h| h == "class").unwrap();
+        fields[class_at] = "";
+        lines[350] = fields.join(",");
+        let blank = lines.join("\n") + "\n";
+        let p = temp("stream_blank.csv", &blank);
+        let whole = read_csv_bytes(&p, blank.as_bytes(), Columns::ALL).unwrap();
+        let streamed = read_csv_streamed_in(&p, crate::map::CATALOGUE_COLUMNS, 97, 13)
+            .unwrap()
+            .expect("large enough to stream");
+        assert_eq!(
+            streamed.wanted,
+            Columns::ALL,
+            "read again with every column"
+        );
+        same_columns(&whole.cat, &streamed.cat, crate::map::CATALOGUE_COLUMNS);
         // Quoted fields hand the file back to the whole-file reader.
         let quoted = text.replacen("Star 5,", "\"Star, 5\",", 1);
         let p = temp("stream_q.csv", &quoted);
