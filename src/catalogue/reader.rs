@@ -1371,51 +1371,9 @@ fn append_partials(all: &mut Partial, parts: &mut [Partial]) {
     }
 }
 
-fn concat_partials(parts: Vec<Partial>) -> Partial {
-    fn cat<T: Clone + Send + Sync>(parts: &[Partial], col: impl Fn(&Partial) -> &Vec<T>) -> Vec<T> {
-        let n = parts.iter().map(|p| col(p).len()).sum();
-        let mut out = Vec::with_capacity(n);
-        for p in parts {
-            out.extend_from_slice(col(p));
-        }
-        out
-    }
+fn concat_partials(mut parts: Vec<Partial>) -> Partial {
     let mut all = Partial::new(parts.first().map_or(Columns::ALL, |p| p.wanted));
-    let ps = &parts[..];
-    let c = &mut all.cat;
-    rayon::scope(|s| {
-        s.spawn(|_| c.id = cat(ps, |p| &p.cat.id));
-        s.spawn(|_| c.system = cat(ps, |p| &p.cat.system));
-        s.spawn(|_| c.x_ly = cat(ps, |p| &p.cat.x_ly));
-        s.spawn(|_| c.y_ly = cat(ps, |p| &p.cat.y_ly));
-        s.spawn(|_| c.z_ly = cat(ps, |p| &p.cat.z_ly));
-        s.spawn(|_| c.kind = cat(ps, |p| &p.cat.kind));
-        s.spawn(|_| c.class = cat(ps, |p| &p.cat.class));
-        s.spawn(|_| c.mass_msun = cat(ps, |p| &p.cat.mass_msun));
-        s.spawn(|_| c.initial_mass_msun = cat(ps, |p| &p.cat.initial_mass_msun));
-        s.spawn(|_| c.radius_rsun = cat(ps, |p| &p.cat.radius_rsun));
-        s.spawn(|_| c.luminosity_lsun = cat(ps, |p| &p.cat.luminosity_lsun));
-        s.spawn(|_| c.teff_k = cat(ps, |p| &p.cat.teff_k));
-        s.spawn(|_| c.age_gyr = cat(ps, |p| &p.cat.age_gyr));
-        s.spawn(|_| c.lifetime_gyr = cat(ps, |p| &p.cat.lifetime_gyr));
-        s.spawn(|_| c.hz_inner_au = cat(ps, |p| &p.cat.hz_inner_au));
-        s.spawn(|_| c.hz_outer_au = cat(ps, |p| &p.cat.hz_outer_au));
-        s.spawn(|_| c.color_rgb = cat(ps, |p| &p.cat.color_rgb));
-        s.spawn(|_| c.abs_mag_v = cat(ps, |p| &p.cat.abs_mag_v));
-        s.spawn(|_| c.separation_au = cat(ps, |p| &p.cat.separation_au));
-        s.spawn(|_| c.period_days = cat(ps, |p| &p.cat.period_days));
-        s.spawn(|_| c.habitable_host = cat(ps, |p| &p.cat.habitable_host));
-        s.spawn(|_| c.origin = cat(ps, |p| &p.cat.origin));
-    });
-    all.missing = cat(ps, |p| &p.missing);
-    all.no_id = cat(ps, |p| &p.no_id);
-    all.no_system = cat(ps, |p| &p.no_system);
-    // Names move (no copy of the strings).
-    let n = parts.iter().map(|p| p.cat.name.len()).sum();
-    all.cat.name.reserve_exact(n);
-    for mut p in parts {
-        all.cat.name.append(&mut p.cat.name);
-    }
+    append_partials(&mut all, &mut parts);
     all
 }
 
