@@ -27,17 +27,9 @@ pub fn luminosity_lsun(mass_msun: f64, age_gyr: f64) -> f64 {
     4e-5 * cooling_exponent(mass_msun, age_gyr).exp()
 }
 
-/// [`luminosity_lsun`] and its log10, from one exponential (the log10
-/// differs from `log10` of the luminosity by rounding only; tested).
-pub fn luminosity_and_log10(mass_msun: f64, age_gyr: f64) -> (f64, f64) {
-    /// log10(4e-5), to the last bit (a test checks it).
-    const LOG10_NORMALISATION: f64 = -4.397_940_008_672_037_5;
-    let x = cooling_exponent(mass_msun, age_gyr);
-    (
-        4e-5 * x.exp(),
-        LOG10_NORMALISATION + x * std::f64::consts::LOG10_E,
-    )
-}
+/// log10(4e-5), the cooling law's normalisation, to the last bit (a test
+/// checks it).
+const LOG10_NORMALISATION: f64 = -4.397_940_008_672_037_5;
 
 /// Luminosity (Lsun) with its log10, radius (Rsun) and Teff (K) of a
 /// brown dwarf of this mass (Msun) and age (Gyr).
@@ -48,8 +40,6 @@ pub fn luminosity_and_log10(mass_msun: f64, age_gyr: f64) -> (f64, f64) {
 /// from the formula applied to L and R by rounding only (tested).
 #[inline]
 pub fn photosphere(mass_msun: f64, age_gyr: f64) -> (f64, f64, f64, f64) {
-    /// log10(4e-5), to the last bit (a test checks it).
-    const LOG10_NORMALISATION: f64 = -4.397_940_008_672_037_5;
     /// 5772 K · (4e-5)^(1/4) (a test checks it).
     const TEFF_SCALE_K: f64 = TEFF_SUN_K * 0.079_527_072_876_705_07;
     let x = cooling_exponent(mass_msun, age_gyr);
@@ -113,11 +103,11 @@ mod tests {
 
     #[test]
     fn log10_of_the_luminosity() {
-        assert_eq!(-4.397_940_008_672_037_5, 4e-5f64.log10());
+        assert_eq!(LOG10_NORMALISATION, 4e-5f64.log10());
         for i in 0..=1000 {
             let m = 0.013 + 0.062 * i as f64 / 1000.0;
             let age = 13.8 * ((i * 37) % 1001) as f64 / 1000.0;
-            let (l, log10_l) = luminosity_and_log10(m, age);
+            let (l, log10_l, _, _) = photosphere(m, age);
             assert_eq!(l, luminosity_lsun(m, age));
             assert!((log10_l - l.log10()).abs() < 1e-13, "{m} {age}");
         }

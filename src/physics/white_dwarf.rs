@@ -93,10 +93,22 @@ pub fn radius_rules_rsun(mass_msun: f64) -> f64 {
 
 /// Luminosity, Lsun, after cooling for `cooling_gyr` (Mestel law, module docs).
 pub fn cooling_luminosity_lsun(mass_msun: f64, cooling_gyr: f64) -> f64 {
-    let t_yr = cooling_gyr.max(MIN_COOLING_GYR) * 1e9;
-    let ratio = 8.8e6 / t_yr;
+    let ratio = mestel_time_ratio(cooling_gyr);
+    mestel_luminosity_lsun(mass_msun, ratio, ratio.ln())
+}
+
+/// 8.8e6 yr / t of the Mestel law, t the cooling time (at least
+/// [`MIN_COOLING_GYR`]).
+#[inline]
+fn mestel_time_ratio(cooling_gyr: f64) -> f64 {
+    8.8e6 / (cooling_gyr.max(MIN_COOLING_GYR) * 1e9)
+}
+
+/// L = M · ratio^1.4 (Lsun) from the time ratio and its logarithm.
+#[inline]
+fn mestel_luminosity_lsun(mass_msun: f64, ratio: f64, ln_ratio: f64) -> f64 {
     // ratio^1.4 = ratio · ratio^0.4.
-    mass_msun * ratio * (0.4 * ratio.ln()).exp()
+    mass_msun * ratio * (0.4 * ln_ratio).exp()
 }
 
 /// Luminosity (Lsun, [`cooling_luminosity_lsun`]) with its log10, and
@@ -110,10 +122,9 @@ pub fn cooling_luminosity_lsun(mass_msun: f64, cooling_gyr: f64) -> f64 {
 #[inline]
 pub fn cooling_photosphere(mass_msun: f64, radius_rsun: f64, cooling_gyr: f64) -> (f64, f64, f64) {
     use std::f64::consts::LOG10_E;
-    let t_yr = cooling_gyr.max(MIN_COOLING_GYR) * 1e9;
-    let ratio = 8.8e6 / t_yr;
+    let ratio = mestel_time_ratio(cooling_gyr);
     let ln_ratio = ratio.ln();
-    let l = mass_msun * ratio * (0.4 * ln_ratio).exp();
+    let l = mestel_luminosity_lsun(mass_msun, ratio, ln_ratio);
     let log10_l = (mass_msun.ln() + 1.4 * ln_ratio) * LOG10_E;
     let teff = super::constants::TEFF_SUN_K * mass_msun.sqrt().sqrt() * (0.35 * ln_ratio).exp()
         / radius_rsun.sqrt();
