@@ -641,15 +641,7 @@ fn parse_fields<'f>(
             }
             Col::Class => {
                 if !s.is_empty() {
-                    // What `from_str_lossy` keeps of a short ASCII code is
-                    // the code itself.
-                    class = Some(if s.len() <= 15 && s.is_ascii() {
-                        let mut bytes = [0u8; 15];
-                        bytes[..s.len()].copy_from_slice(s.as_bytes());
-                        ClassCode::from_bytes(bytes, s.len())
-                    } else {
-                        ClassCode::from_str_lossy(s)
-                    })
+                    class = Some(ClassCode::from_str_lossy(s))
                 }
             }
             Col::Mass => num[0] = number()?,
@@ -1317,10 +1309,9 @@ fn parse_piece(
     parse_chunk_into(layout, text, out).map_err(|e| PieceError::Row(from, e))
 }
 
-/// Joins chunk results in order, each column copied once into a vector of
-/// the final size, columns in parallel.
-/// Appends the rows of `parts`, in order, to `all` (same wanted columns)
-/// and leaves each part empty with its allocations kept for reuse.
+/// Appends the rows of `parts`, in order, to `all` (same wanted columns),
+/// columns in parallel, and leaves each part empty with its allocations
+/// kept for reuse.
 fn append_partials(all: &mut Partial, parts: &mut [Partial]) {
     fn add<T: Clone + Send + Sync>(
         out: &mut Vec<T>,
@@ -1371,6 +1362,8 @@ fn append_partials(all: &mut Partial, parts: &mut [Partial]) {
     }
 }
 
+/// Joins chunk results in order, each column copied once into a vector of
+/// the final size.
 fn concat_partials(mut parts: Vec<Partial>) -> Partial {
     let mut all = Partial::new(parts.first().map_or(Columns::ALL, |p| p.wanted));
     append_partials(&mut all, &mut parts);

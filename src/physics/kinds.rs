@@ -154,6 +154,14 @@ impl ClassCode {
     /// Builds a code from text, keeping the first 15 ASCII bytes.
     pub fn from_str_lossy(text: &str) -> ClassCode {
         let mut bytes = [0u8; 15];
+        if text.len() <= 15 && text.is_ascii() {
+            // Nothing to drop: the code is the text.
+            bytes[..text.len()].copy_from_slice(text.as_bytes());
+            return ClassCode {
+                bytes,
+                len: text.len() as u8,
+            };
+        }
         let mut len = 0;
         for b in text.bytes().filter(u8::is_ascii).take(15) {
             bytes[len] = b;
