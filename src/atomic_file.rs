@@ -7,6 +7,26 @@ use std::fs::File;
 use std::io::{BufWriter, Write};
 use std::path::{Path, PathBuf};
 
+/// Bytes handed to the kernel per `write` call: the capacity of the
+/// writer [`write_atomic`] gives out, and the piece size of
+/// [`write_in_pieces`].
+///
+/// Measured on the 2-core VM (Linux, ext4), writing 2.75 GB into the page
+/// cache with `dd`, runs interleaved: 1.0–5.3 s of system time (median
+/// 2.6 s) in 256 KiB writes against 3.9 s in 1 MiB and 5.2–7.7 s (median
+/// 6.1 s) in 4 MiB writes. Small enough for the copy's source to stay in
+/// the core's cache, large enough that the calls themselves cost nothing.
+pub const WRITE_PIECE_BYTES: usize = 256 << 10;
+
+/// Writes `bytes` in pieces of [`WRITE_PIECE_BYTES`]: the same bytes as
+/// one `write_all`. Through the writer of [`write_atomic`] each piece
+/// goes straight to the file.
+pub fn write_in_pieces(file: &mut impl Write, bytes: &[u8]) -> std::io::Result<()> {
+    bytes
+        .chunks(WRITE_PIECE_BYTES)
+        .try_for_each(|piece| file.write_all(piece))
+}
+
 /// Checks that `path` may be written: its folder exists and, unless
 /// `force`, no file is there yet. Call this for every output before any
 /// work starts, so a refusal costs nothing.
@@ -42,7 +62,7 @@ where
     };
     let result = (|| {
         let file = File::create(&temp)?;
-        let mut writer = BufWriter::with_capacity(1 << 20, file);
+        let mut writer = BufWriter::with_capacity(WRITE_PIECE_BYTES, file);
         fill(&mut writer)?;
         writer.flush()?;
         // No fsync: the rename is what makes the write atomic for readers
@@ -62,7 +82,7 @@ where
 
 /// Writes a byte buffer atomically (see [`write_atomic`]).
 pub fn write_bytes(path: &Path, force: bool, bytes: &[u8]) -> Result<()> {
-    write_atomic(path, force, |w| w.write_all(bytes))
+    write_atomic(path, force, |w| write_in_pieces(w, bytes))
 }
 
 fn temp_path(path: &Path) -> PathBuf {

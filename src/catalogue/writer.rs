@@ -2,6 +2,7 @@
 
 use super::table::{Catalogue, RowView};
 use super::text_buffer::{TextBuffer, TextSink};
+use crate::atomic_file::write_in_pieces;
 use crate::error::{Error, Result};
 use std::io::Write;
 use std::path::Path;
@@ -74,10 +75,10 @@ pub fn write_catalogue(cat: &Catalogue, path: &Path, force: bool) -> Result<()> 
             };
             format.push_row(&mut buf, &row);
             if buf.len() > (1 << 20) - 4096 {
-                w.write_all(buf.as_bytes())?;
+                write_in_pieces(w, buf.as_bytes())?;
                 buf.clear();
             }
         }
-        w.write_all(buf.as_bytes())
+        write_in_pieces(w, buf.as_bytes())
     })
 }

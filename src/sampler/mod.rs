@@ -568,7 +568,7 @@ pub fn write_sector(
                 let Ok((i, buf, r)) = rx.recv() else { break };
                 ready.insert(i, (buf, r));
                 while let Some((mut buf, r)) = ready.remove(&next) {
-                    if let Err(e) = write_in_pieces(file, buf.as_bytes()) {
+                    if let Err(e) = crate::atomic_file::write_in_pieces(file, buf.as_bytes()) {
                         result = Err(e);
                         break;
                     }
@@ -592,22 +592,4 @@ pub fn write_sector(
         result
     })?;
     Ok(report)
-}
-
-/// Bytes handed to the kernel per `write` call when writing a catalogue.
-///
-/// Measured on the 2-core VM (Linux, ext4), writing 2.75 GB into the page
-/// cache with `dd`, runs interleaved: 1.0–5.3 s of system time (median
-/// 2.6 s) in 256 KiB writes against 5.2–7.7 s (median 6.1 s) in 4 MiB
-/// writes; a batch of rows is a few MiB. Small enough for the copy's
-/// source to stay in the core's cache, large enough that the calls
-/// themselves cost nothing.
-const WRITE_PIECE_BYTES: usize = 256 << 10;
-
-/// Writes `bytes` in pieces of [`WRITE_PIECE_BYTES`]: the same bytes as
-/// one `write_all`.
-fn write_in_pieces(file: &mut impl Write, bytes: &[u8]) -> std::io::Result<()> {
-    bytes
-        .chunks(WRITE_PIECE_BYTES)
-        .try_for_each(|piece| file.write_all(piece))
 }
