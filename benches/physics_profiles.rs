@@ -58,31 +58,14 @@
 //! figure as CPU time (88 ns fastest round for both mass ranges, 92 / 104 ns
 //! median round, 80 ns from the fastest tenths of the input).
 
-use rand::RngExt;
-use starloom::physics::{Fidelity, KindChoice, StarRequest, star_profile};
-use starloom::seed::{Stream, rng_for};
-use starloom::units::{Gigayears, SolarMasses};
+#[path = "support/profile_requests.rs"]
+mod profile_requests;
 
-const N_STARS: usize = 1_000_000;
+use profile_requests::requests;
+use starloom::physics::{Fidelity, star_profile};
 
 fn main() {
     divan::main();
-}
-
-/// Log-uniform masses in `lo..hi` Msun, uniform ages 0–13.8 Gyr.
-fn requests(lo: f64, hi: f64) -> Vec<StarRequest> {
-    let mut rng = rng_for(2026, 1, Stream::Other);
-    (0..N_STARS)
-        .map(|_| {
-            let u: f64 = rng.random();
-            let a: f64 = rng.random();
-            StarRequest {
-                mass: SolarMasses::new(lo * (hi / lo).powf(u)).unwrap(),
-                age: Gigayears::new(13.8 * a).unwrap(),
-                kind: KindChoice::Auto,
-            }
-        })
-        .collect()
 }
 
 fn run(bencher: divan::Bencher, lo: f64, hi: f64, fidelity: Fidelity) {

@@ -14,35 +14,18 @@
 //! the first field of `/proc/thread-self/schedstat` (nanoseconds on a
 //! CPU), so this runs on Linux only.
 
-use rand::RngExt;
-use starloom::physics::{Fidelity, KindChoice, StarRequest, star_profile};
-use starloom::seed::{Stream, rng_for};
-use starloom::units::{Gigayears, SolarMasses};
-use std::hint::black_box;
+#[path = "../benches/support/profile_requests.rs"]
+mod profile_requests;
 
-const N_STARS: usize = 1_000_000;
+use profile_requests::{N_STARS, requests};
+use starloom::physics::{Fidelity, star_profile};
+use std::hint::black_box;
 
 /// Nanoseconds this thread has spent on a CPU.
 fn thread_cpu_ns() -> Result<u64, Box<dyn std::error::Error>> {
     let text = std::fs::read_to_string("/proc/thread-self/schedstat")?;
     let first = text.split_whitespace().next().ok_or("empty schedstat")?;
     Ok(first.parse()?)
-}
-
-/// Log-uniform masses in `lo..hi` Msun, uniform ages 0–13.8 Gyr.
-fn requests(lo: f64, hi: f64) -> Vec<StarRequest> {
-    let mut rng = rng_for(2026, 1, Stream::Other);
-    (0..N_STARS)
-        .map(|_| {
-            let u: f64 = rng.random();
-            let a: f64 = rng.random();
-            StarRequest {
-                mass: SolarMasses::new(lo * (hi / lo).powf(u)).expect("a mass in range"),
-                age: Gigayears::new(13.8 * a).expect("an age in range"),
-                kind: KindChoice::Auto,
-            }
-        })
-        .collect()
 }
 
 fn main() -> Result<(), Box<dyn std::error::Error>> {

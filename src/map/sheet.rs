@@ -839,6 +839,13 @@ impl Ctx<'_> {
         let keep = budget.saturating_mul(6).min(50_000);
         let by_key =
             |a: &(f64, u32, u32), b: &(f64, u32, u32)| b.0.total_cmp(&a.0).then(a.1.cmp(&b.1));
+        // The `keep` best by `by_key`, in no particular order.
+        let keep_best = |candidates: &mut Vec<(f64, u32, u32)>| {
+            if candidates.len() > keep {
+                candidates.select_nth_unstable_by(keep, by_key);
+                candidates.truncate(keep);
+            }
+        };
         // Candidates with their sort keys, gathered in parallel slices that
         // each keep only their `keep` best: the key orders candidates
         // strictly (systems are unique), so the best of all are among
@@ -859,17 +866,11 @@ impl Ctx<'_> {
                         wanted.then(|| (lum(v), v.sys, (c * SLICE + j) as u32))
                     })
                     .collect();
-                if best.len() > keep {
-                    best.select_nth_unstable_by(keep, by_key);
-                    best.truncate(keep);
-                }
+                keep_best(&mut best);
                 best
             })
             .collect();
-        if keyed.len() > keep {
-            keyed.select_nth_unstable_by(keep, by_key);
-            keyed.truncate(keep);
-        }
+        keep_best(&mut keyed);
         keyed.sort_by(by_key);
         let mut order: Vec<usize> = keyed.iter().map(|k| k.2 as usize).collect();
         let by_lum = |a: &usize, b: &usize| {
