@@ -71,6 +71,8 @@ mod tests {
 
     #[test]
     fn photosphere_is_stefan_boltzmann() {
+        // Against Teff = 5772 K · L^(1/4) · R^(-1/2), the Stefan–Boltzmann
+        // law in the IAU 2015 B3 nominal solar units (effective_temperature.rs).
         assert_eq!(0.079_527_072_876_705_07, 4e-5f64.powf(0.25));
         for i in 0..=200 {
             let m = 0.013 + 0.062 * i as f64 / 200.0;
