@@ -159,14 +159,14 @@ pub fn write_demo(dir: &Path, progress: &(dyn Fn(u64, u64) + Sync)) -> Result<De
             _ => cat.profile(i),
         };
         let base = dir.join("profiles").join(slug(&cat.name[i]));
-        let mut text = format!("{}\n", cat.name[i]);
+        let mut text = format!("{}\n", &cat.name[i]);
         text.push_str(&crate::cli::star::profile_text(&profile, fidelity));
         let txt = base.with_extension("txt");
         crate::atomic_file::write_bytes(&txt, true, text.as_bytes())?;
         report.files.push(txt);
         let mut value = crate::cli::star::profile_json(&profile, fidelity);
         if let serde_json::Value::Object(map) = &mut value {
-            map.insert("name".into(), cat.name[i].clone().into());
+            map.insert("name".into(), cat.name[i].to_string().into());
             map.insert("system".into(), cat.system[i].into());
             let p = cat.position_ly(i);
             map.insert("position_ly".into(), serde_json::json!(p));
@@ -316,7 +316,7 @@ fn write_routes(dir: &Path, cat: &Catalogue, report: &mut DemoReport) -> Result<
                 };
                 text.push_str(&format!(
                     "  {leg:>9}  {} ({})\n",
-                    cat.name[row],
+                    &cat.name[row],
                     cat.class[row].as_str()
                 ));
             }

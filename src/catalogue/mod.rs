@@ -6,6 +6,7 @@
 pub mod csv_format;
 pub mod designations;
 pub mod jsonl;
+pub mod name_column;
 pub mod names;
 pub mod number_format;
 pub mod reader;
@@ -13,6 +14,7 @@ pub mod table;
 pub mod text_buffer;
 pub mod writer;
 
+pub use name_column::NameColumn;
 pub use reader::read_catalogue;
 pub use table::{Catalogue, CatalogueMeta, Origin, RowView, StarRow};
 pub use text_buffer::{TextBuffer, TextSink};

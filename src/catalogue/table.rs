@@ -1,6 +1,7 @@
 //! Struct-of-arrays storage for a catalogue: one `Vec` per column, all the
 //! same length, rows in a fixed order (cell, then index within the cell).
 
+use super::NameColumn;
 use crate::physics::{ClassCode, HabitableZone, StarKind, StarProfile};
 
 /// Where a row came from.
@@ -101,7 +102,7 @@ pub struct Catalogue {
     /// System ids (equal to the primary's star id).
     pub system: Vec<u64>,
     /// Display names.
-    pub name: Vec<String>,
+    pub name: NameColumn,
     /// x, light years, galactic axes.
     pub x_ly: Vec<f64>,
     /// y, light years, galactic axes.
@@ -162,7 +163,7 @@ impl Catalogue {
         let p = &row.profile;
         self.id.push(row.id);
         self.system.push(row.system);
-        self.name.push(row.name);
+        self.name.push(&row.name);
         self.x_ly.push(row.position_ly[0]);
         self.y_ly.push(row.position_ly[1]);
         self.z_ly.push(row.position_ly[2]);
@@ -190,7 +191,7 @@ impl Catalogue {
         let p = row.profile;
         self.id.push(row.id);
         self.system.push(row.system);
-        self.name.push(row.name.to_string());
+        self.name.push(row.name);
         self.x_ly.push(row.position_ly[0]);
         self.y_ly.push(row.position_ly[1]);
         self.z_ly.push(row.position_ly[2]);

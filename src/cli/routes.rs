@@ -224,7 +224,7 @@ pub fn run(args: RoutesArgs) -> anyhow::Result<ExitCode> {
     let avoided = systems_of_kinds(&cat, &systems, &req.avoid);
     let allowed = |n: u32| !avoided[n as usize];
     let adjacency = network.adjacency();
-    let name = |n: u32| cat.name[systems.primary_rows[n as usize]].clone();
+    let name = |n: u32| cat.name[systems.primary_rows[n as usize]].to_string();
     let id = |n: u32| systems.ids[n as usize];
     doc.insert("from".into(), json!(id(from)));
     doc.insert("to".into(), json!(id(to)));

@@ -274,7 +274,7 @@ fn push_row_of(out: &mut Catalogue, cat: &Catalogue, i: usize) {
     out.push(StarRow {
         id: cat.id[i],
         system: cat.system[i],
-        name: cat.name[i].clone(),
+        name: cat.name[i].to_string(),
         position_ly: cat.position_ly(i),
         profile: cat.profile(i),
         separation_au: cat.separation_au[i],
@@ -293,7 +293,7 @@ fn push_row_of(out: &mut Catalogue, cat: &Catalogue, i: usize) {
 ///
 /// let spec = SectorSpec::new(7, Shape::Sphere { radius_ly: 20.0 }, [0.0; 3]);
 /// let cat = real_neighbourhood_sector(&spec).unwrap();
-/// assert_eq!(cat.name[0], "Sun");
+/// assert_eq!(&cat.name[0], "Sun");
 /// ```
 pub fn real_neighbourhood_sector(spec: &SectorSpec) -> Result<Catalogue> {
     spec.validate()?;

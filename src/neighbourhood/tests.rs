@@ -61,7 +61,7 @@ fn real_part_matches_the_extract() {
     // python); every one is in the catalogue, and no other.
     assert_eq!(in_extract, 165);
     assert_eq!(real, in_extract);
-    assert_eq!(cat.name[0], "Sun");
+    assert_eq!(&cat.name[0], "Sun");
     assert!(cat.origin.iter().all(|&o| o == Origin::Hipparcos));
     // Members share their primary's position and system id.
     for r in cat.system_ranges() {
@@ -86,13 +86,13 @@ fn naked_eye_sky_is_the_extracts_and_the_fill_stays_faint() {
         let v = cat.abs_mag_v[i] + 5.0 * d_pc.log10() - 5.0;
         if v < 6.5 {
             naked += 1;
-            assert_eq!(cat.origin[i], Origin::Hipparcos, "{}", cat.name[i]);
+            assert_eq!(cat.origin[i], Origin::Hipparcos, "{}", &cat.name[i]);
         }
         if cat.origin[i] == Origin::Generated && d <= EXTRACT_REACH_LY {
             // The lower of the two Hipparcos completeness limits,
             // 7.3 + 1.1 |sin b| (ESA 1997, SP-1200 Vol. 1; from memory).
             let sin_b = (cat.z_ly[i] / d).abs();
-            assert!(v > 7.3 + 1.1 * sin_b, "{} at V {v}", cat.name[i]);
+            assert!(v > 7.3 + 1.1 * sin_b, "{} at V {v}", &cat.name[i]);
         }
     }
     let extract_naked = extract::extract()

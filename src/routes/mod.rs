@@ -180,13 +180,13 @@ pub(crate) fn close_names(cat: &Catalogue, lower: &str) -> Vec<String> {
     let mut seen = std::collections::HashSet::new();
     for name in &cat.name {
         let len = name.chars().count();
-        if len.abs_diff(target.len()) > limit || !seen.insert(name.as_str()) {
+        if len.abs_diff(target.len()) > limit || !seen.insert(name) {
             continue;
         }
         let cand: Vec<char> = name.to_lowercase().chars().collect();
         let d = edit_distance(&target, &cand);
         if d <= limit {
-            best.push((d, name.clone()));
+            best.push((d, name.to_string()));
         }
     }
     best.sort();

@@ -16,7 +16,7 @@ fn real_neighbourhood_file_marks_every_row() {
     let side = std::fs::read_to_string(dir.join("near.csv.toml")).unwrap();
     assert!(side.contains("--real"), "{side}");
     let cat = starloom::catalogue::read_catalogue(&dir.join("near.csv")).unwrap();
-    assert_eq!(cat.name[0], "Sun");
+    assert_eq!(&cat.name[0], "Sun");
     assert_eq!(cat.position_ly(0), [0.0; 3]);
     // α Centauri A (HIP 71683) is present, under its HIP number.
     let a = cat.id.iter().position(|&id| id == 71683).expect("α Cen A");

@@ -96,7 +96,7 @@ fn sector_pins_place_the_users_systems_and_clear_around_them() {
     for (name, p) in pins {
         assert!(!near(&plain, p).is_empty(), "{name}: something to clear");
         let rows: Vec<usize> = (0..pinned.len())
-            .filter(|&i| pinned.name[i] == name)
+            .filter(|&i| &pinned.name[i] == name)
             .collect();
         assert_eq!(rows.len(), 1, "{name} appears once");
         let r = rows[0];
@@ -112,7 +112,7 @@ fn sector_pins_place_the_users_systems_and_clear_around_them() {
     }
     assert!(
         (pinned.mass_msun[(0..pinned.len())
-            .find(|&i| pinned.name[i] == "Harbour Light")
+            .find(|&i| &pinned.name[i] == "Harbour Light")
             .unwrap()]
             - 0.9)
             .abs()

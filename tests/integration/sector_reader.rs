@@ -49,7 +49,7 @@ fn sector_reads_back_csv_and_jsonl_it_wrote() {
     for i in 0..csv.len() {
         assert_eq!(csv.id[i], json.id[i], "row {i}");
         assert_eq!(csv.system[i], json.system[i], "row {i}");
-        assert_eq!(csv.name[i], json.name[i], "row {i}");
+        assert_eq!(&csv.name[i], &json.name[i], "row {i}");
         assert_eq!(csv.kind[i], json.kind[i], "row {i}");
         assert_eq!(csv.class[i].as_str(), json.class[i].as_str(), "row {i}");
         assert_eq!(csv.color_rgb[i], json.color_rgb[i], "row {i}");
@@ -82,7 +82,7 @@ fn sector_reads_back_csv_and_jsonl_it_wrote() {
             (csv.id[i], csv.system[i]),
             "row {i}"
         );
-        assert_eq!(mem.name[i], csv.name[i], "row {i}");
+        assert_eq!(&mem.name[i], &csv.name[i], "row {i}");
         assert_eq!(mem.kind[i], csv.kind[i], "row {i}");
         for (a, b) in mem.position_ly(i).iter().zip(csv.position_ly(i)) {
             assert!((a - b).abs() <= 0.0005 + 1e-9, "row {i}: {a} vs {b}");
@@ -120,7 +120,7 @@ fn sector_reads_a_users_own_csv_in_ly_pc_and_sky_coordinates() {
     let p0 = pc.position_ly(0);
     assert!((p0[0] - ly_per_pc).abs() < 1e-8 && (p0[2] + 2.0 * ly_per_pc).abs() < 1e-8);
     assert!((pc.position_ly(1)[1] - 10.0 * ly_per_pc).abs() < 1e-7);
-    assert_eq!(pc.name[0], "One");
+    assert_eq!(&pc.name[0], "One");
     // A mass alone gives the whole profile (a 1 Msun star is a G dwarf).
     assert!(
         pc.teff_k[0] > 5000.0 && pc.teff_k[0] < 6500.0,
