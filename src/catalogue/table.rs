@@ -275,7 +275,9 @@ impl Catalogue {
     /// Row ranges of the systems, in catalogue order: each range holds one
     /// system's members, primary first.
     pub fn system_ranges(&self) -> Vec<std::ops::Range<usize>> {
-        let mut ranges = Vec::new();
+        // Room for one system per row: no regrowing, and only the pages
+        // actually used are ever touched.
+        let mut ranges = Vec::with_capacity(self.len());
         let mut start = 0;
         for i in 1..=self.len() {
             if i == self.len() || self.system[i] != self.system[start] {

@@ -118,17 +118,32 @@ fn pos(cat: &Catalogue, row: usize) -> [f64; 3] {
 }
 
 fn bbox_centre(cat: &Catalogue) -> [f64; 3] {
-    let mut lo = [f64::INFINITY; 3];
-    let mut hi = [f64::NEG_INFINITY; 3];
-    for i in 0..cat.len() {
-        let p = pos(cat, i);
-        for k in 0..3 {
-            if p[k].is_finite() {
-                lo[k] = lo[k].min(p[k]);
-                hi[k] = hi[k].max(p[k]);
-            }
-        }
-    }
+    // Minima and maxima are exact, so the parallel split cannot change them.
+    let (lo, hi) = (0..cat.len())
+        .into_par_iter()
+        .with_min_len(1 << 14)
+        .fold(
+            || ([f64::INFINITY; 3], [f64::NEG_INFINITY; 3]),
+            |(mut lo, mut hi), i| {
+                let p = pos(cat, i);
+                for k in 0..3 {
+                    if p[k].is_finite() {
+                        lo[k] = lo[k].min(p[k]);
+                        hi[k] = hi[k].max(p[k]);
+                    }
+                }
+                (lo, hi)
+            },
+        )
+        .reduce(
+            || ([f64::INFINITY; 3], [f64::NEG_INFINITY; 3]),
+            |a, b| {
+                (
+                    std::array::from_fn(|k| a.0[k].min(b.0[k])),
+                    std::array::from_fn(|k| a.1[k].max(b.1[k])),
+                )
+            },
+        );
     let mut c = [0.0; 3];
     for k in 0..3 {
         if lo[k] <= hi[k] {
