@@ -849,18 +849,29 @@ fn parse_chunk_into(
     let b = chunk.as_bytes();
     if b.len() >= SEP_NEWLINE as usize {
         // Offsets would not fit beside the flag: cut the chunk at a line end.
-        let mid = memchr::memrchr(b'\n', &b[..b.len() / 2]).map_or(b.len(), |i| i + 1);
-        if mid < b.len() {
-            parse_chunk_into(layout, &chunk[..mid], out)?;
-            let lines_before = memchr::memchr_iter(b'\n', &b[..mid]).count() as u64;
-            let mut rest = Partial::new(layout.wanted);
-            parse_chunk_into(layout, &chunk[mid..], &mut rest).map_err(|mut e| {
-                e.line_in_chunk += lines_before;
-                e
-            })?;
-            append_partials(out, &mut [rest]);
-            return Ok(());
+        let half = b.len() / 2;
+        let mid = memchr::memrchr(b'\n', &b[..half])
+            .or_else(|| memchr::memchr(b'\n', &b[half..]).map(|i| half + i))
+            .map_or(b.len(), |i| i + 1);
+        if mid >= b.len() {
+            // One line: there is nothing to list.
+            let mut fields = Vec::new();
+            let line = chunk.strip_suffix('\n').unwrap_or(chunk);
+            return odd_row(layout, line, &mut fields, out).map_err(|(column, message)| RowError {
+                line_in_chunk: 0,
+                column,
+                message,
+            });
         }
+        parse_chunk_into(layout, &chunk[..mid], out)?;
+        let lines_before = memchr::memchr_iter(b'\n', &b[..mid]).count() as u64;
+        let mut rest = Partial::new(layout.wanted);
+        parse_chunk_into(layout, &chunk[mid..], &mut rest).map_err(|mut e| {
+            e.line_in_chunk += lines_before;
+            e
+        })?;
+        append_partials(out, &mut [rest]);
+        return Ok(());
     }
     let mut seps = std::mem::take(&mut out.seps);
     find_separators(b, &mut seps);
@@ -895,7 +906,7 @@ fn find_separators(b: &[u8], seps: &mut Vec<u32>) {
         let mut bits = commas | ends;
         while bits != 0 {
             let tz = bits.trailing_zeros();
-            seps.push((pos as u32 + tz) | ((ends >> tz) as u32 & 1) << 31);
+            seps.push((pos as u32 + tz) | (((ends >> tz) as u32 & 1) * SEP_NEWLINE));
             bits &= bits - 1;
         }
         pos += 64;
