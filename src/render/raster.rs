@@ -495,7 +495,7 @@ fn stamp_sprite(
         return;
     }
     let stroke = stroke.filter(|c| c.a != 0 && !sp.stroke.is_empty());
-    let fill_on = fill.a != 0;
+    let size = sp.size;
     for y in ya..yb {
         let my = (y - oy) as usize;
         let (s0, s1) = sp.spans[my];
@@ -504,19 +504,35 @@ fn stamp_sprite(
         if xa >= xb {
             continue;
         }
-        let mrow = my * sp.size;
+        let (ma, mb) = (
+            my * size + (xa - ox) as usize,
+            my * size + (xb - ox) as usize,
+        );
         let drow = (y * w) as usize * 4;
-        for x in xa..xb {
-            let m = mrow + (x - ox) as usize;
-            let d: &mut [u8; 4] = (&mut data[drow + x as usize * 4..drow + x as usize * 4 + 4])
-                .try_into()
-                .expect("four bytes");
-            if fill_on {
-                blend_px(d, fill, sp.fill[m]);
+        let dst = &mut data[drow + xa as usize * 4..drow + xb as usize * 4];
+        let fills = &sp.fill[ma..mb];
+        match stroke {
+            Some(sc) => {
+                let strokes = &sp.stroke[ma..mb];
+                for ((d, &cf), &cs) in dst.chunks_exact_mut(4).zip(fills).zip(strokes) {
+                    let d: &mut [u8; 4] = d.try_into().expect("four bytes");
+                    if cs == 255 && sc.a == 255 {
+                        // The outline covers whatever the fill left.
+                        *d = [sc.r, sc.g, sc.b, 255];
+                        continue;
+                    }
+                    if fill.a != 0 {
+                        blend_px(d, fill, cf);
+                    }
+                    blend_px(d, sc, cs);
+                }
             }
-            if let Some(sc) = stroke {
-                blend_px(d, sc, sp.stroke[m]);
+            None if fill.a != 0 => {
+                for (d, &cf) in dst.chunks_exact_mut(4).zip(fills) {
+                    blend_px(d.try_into().expect("four bytes"), fill, cf);
+                }
             }
+            None => {}
         }
     }
 }
@@ -836,6 +852,70 @@ fn item_extent_mm(item: &Item) -> (f32, f32) {
             } else {
                 let reach = text::text_width_mm(text, *size_pt, *bold) + 1.5 * size_mm;
                 (position_mm[1] - reach, position_mm[1] + reach)
+            }
+        }
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    /// A background with every byte different and alpha not always 255
+    /// (premultiplied: colour bytes never above alpha).
+    fn background(w: usize, h: usize) -> Vec<u8> {
+        (0..w * h)
+            .flat_map(|i| {
+                let a = 128 + (i * 37 % 128) as u8;
+                let c = |k: usize| ((i * k) % (usize::from(a) + 1)) as u8;
+                [c(7), c(13), c(29), a]
+            })
+            .collect()
+    }
+
+    #[test]
+    fn stamping_equals_the_two_masks_blended_in_turn() {
+        let (w, h) = (23usize, 19usize);
+        let colours = [
+            Rgba::rgb(255, 200, 120),
+            Rgba {
+                r: 40,
+                g: 90,
+                b: 250,
+                a: 140,
+            },
+            Rgba {
+                r: 9,
+                g: 9,
+                b: 9,
+                a: 0,
+            },
+        ];
+        for step in [1usize, 7, 20, 61] {
+            for outline_px in [0.0f32, 1.2, 2.5] {
+                let sp = make_sprite(step, 1, 3, outline_px);
+                for &fill in &colours {
+                    for &line in &colours {
+                        // Inside, and clipped on every side.
+                        for (ox, oy) in [(3, 2), (-4, -3), (w as i32 - 5, h as i32 - 4), (-40, 0)] {
+                            let stroke = (outline_px > 0.0).then_some(line);
+                            let mut got = background(w, h);
+                            stamp_sprite(&mut got, w as i32, h as i32, ox, oy, &sp, fill, stroke);
+                            let mut want = background(w, h);
+                            let n = sp.size;
+                            blend_mask(&mut want, w as i32, h as i32, ox, oy, n, n, &sp.fill, fill);
+                            if let Some(sc) = stroke {
+                                blend_mask(
+                                    &mut want, w as i32, h as i32, ox, oy, n, n, &sp.stroke, sc,
+                                );
+                            }
+                            assert_eq!(
+                                got, want,
+                                "step {step}, outline {outline_px}, at {ox},{oy}"
+                            );
+                        }
+                    }
+                }
             }
         }
     }
