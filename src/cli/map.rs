@@ -218,6 +218,7 @@ fn settings(
 pub fn run(args: MapArgs) -> anyhow::Result<ExitCode> {
     let mut stages = Stages::new(args.timings);
     let (mut opts, jump_ly, lanes, route) = settings(&args)?;
+    crate::render::text::warm_up();
     let cat = crate::catalogue::reader::read_catalogue_columns(
         &args.catalogue,
         crate::map::CATALOGUE_COLUMNS.with(crate::routes::CATALOGUE_COLUMNS),

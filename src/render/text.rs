@@ -49,6 +49,17 @@ fn font(bold: bool) -> &'static FontFace {
     }
 }
 
+/// Starts parsing both faces on a thread of its own and returns at once,
+/// so a caller with other work first (reading a catalogue) does not wait
+/// for them later. Parsing builds every glyph's outline: tens of
+/// milliseconds.
+pub fn warm_up() {
+    std::thread::spawn(|| {
+        font(false);
+        font(true);
+    });
+}
+
 /// One glyph of a laid-out line.
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub struct PlacedGlyph {
