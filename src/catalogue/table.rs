@@ -275,18 +275,70 @@ impl Catalogue {
     /// Row ranges of the systems, in catalogue order: each range holds one
     /// system's members, primary first.
     pub fn system_ranges(&self) -> Vec<std::ops::Range<usize>> {
-        // Room for one system per row: no regrowing, and only the pages
-        // actually used are ever touched.
-        let mut ranges = Vec::with_capacity(self.len());
+        use rayon::prelude::*;
+        let n = self.len();
+        if n == 0 {
+            return Vec::new();
+        }
+        // A system starts where the id changes. Found in pieces on all
+        // threads; the starts come back in row order.
+        let piece = 1 << 16;
+        let sys = &self.system;
+        let starts: Vec<Vec<usize>> = (0..n.div_ceil(piece))
+            .into_par_iter()
+            .map(|k| {
+                let (a, b) = (k * piece, ((k + 1) * piece).min(n));
+                (a.max(1)..b).filter(|&i| sys[i] != sys[i - 1]).collect()
+            })
+            .collect();
+        let mut ranges = Vec::with_capacity(1 + starts.iter().map(Vec::len).sum::<usize>());
         let mut start = 0;
-        for i in 1..=self.len() {
-            if i == self.len() || self.system[i] != self.system[start] {
-                if start < i {
-                    ranges.push(start..i);
-                }
-                start = i;
+        for i in starts.into_iter().flatten() {
+            ranges.push(start..i);
+            start = i;
+        }
+        ranges.push(start..n);
+        ranges
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    /// The ranges by one plain pass over the rows.
+    fn ranges_one_by_one(system: &[u64]) -> Vec<std::ops::Range<usize>> {
+        let mut out: Vec<std::ops::Range<usize>> = Vec::new();
+        for (i, s) in system.iter().enumerate() {
+            match out.last_mut() {
+                Some(r) if system[r.start] == *s => r.end = i + 1,
+                _ => out.push(i..i + 1),
             }
         }
-        ranges
+        out
+    }
+
+    #[test]
+    fn system_ranges_split_where_the_system_changes() {
+        // Runs of 1 to 4 rows, so runs straddle the parallel pieces.
+        for n in [0usize, 1, 2, 65_535, 65_536, 65_537, 200_001] {
+            let mut cat = Catalogue::default();
+            let mut sys = 0u64;
+            let mut left = 0u64;
+            for i in 0..n as u64 {
+                if left == 0 {
+                    sys = i * 7 + 3;
+                    left = 1 + ((i * 2_654_435_761) >> 7) % 4;
+                }
+                left -= 1;
+                cat.id.push(i);
+                cat.system.push(sys);
+            }
+            assert_eq!(
+                cat.system_ranges(),
+                ranges_one_by_one(&cat.system),
+                "{n} rows"
+            );
+        }
     }
 }

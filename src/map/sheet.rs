@@ -343,6 +343,51 @@ struct Vis {
     sys: u32,
 }
 
+/// The stars of part of a sheet, sorted into what `draw_stars` draws.
+struct StarLists<'v> {
+    centres: Vec<[f32; 2]>,
+    radii: Vec<f32>,
+    fills: Vec<Rgba>,
+    faded_centres: Vec<[f32; 2]>,
+    faded_radii: Vec<f32>,
+    faded_fills: Vec<Rgba>,
+    markers: Vec<(&'v Vis, Symbol, bool)>,
+}
+
+impl<'v> StarLists<'v> {
+    fn with_capacity(n: usize) -> Self {
+        StarLists {
+            centres: Vec::with_capacity(n),
+            radii: Vec::with_capacity(n),
+            fills: Vec::with_capacity(n),
+            faded_centres: Vec::new(),
+            faded_radii: Vec::new(),
+            faded_fills: Vec::new(),
+            markers: Vec::new(),
+        }
+    }
+
+    /// The lists of `parts` one after the other.
+    fn join(parts: Vec<StarLists<'v>>) -> Self {
+        let total = |f: fn(&StarLists<'v>) -> usize| parts.iter().map(f).sum::<usize>();
+        let mut all = StarLists::with_capacity(total(|l| l.centres.len()));
+        all.faded_centres.reserve(total(|l| l.faded_centres.len()));
+        all.faded_radii.reserve(total(|l| l.faded_radii.len()));
+        all.faded_fills.reserve(total(|l| l.faded_fills.len()));
+        all.markers.reserve(total(|l| l.markers.len()));
+        for l in parts {
+            all.centres.extend_from_slice(&l.centres);
+            all.radii.extend_from_slice(&l.radii);
+            all.fills.extend_from_slice(&l.fills);
+            all.faded_centres.extend_from_slice(&l.faded_centres);
+            all.faded_radii.extend_from_slice(&l.faded_radii);
+            all.faded_fills.extend_from_slice(&l.faded_fills);
+            all.markers.extend(l.markers);
+        }
+        all
+    }
+}
+
 impl Ctx<'_> {
     fn page_mm(&self) -> (f32, f32) {
         self.opts.paper.size_mm(self.opts.landscape)
@@ -741,45 +786,54 @@ impl Ctx<'_> {
         let cat = self.cat;
         let use_symbols = vis.len() <= SYMBOL_LIMIT
             || vis
-                .iter()
+                .par_iter()
                 .filter(|v| {
                     Symbol::of(cat.kind[self.systems[v.sys as usize].look as usize]) != Symbol::Disc
                 })
                 .count()
                 <= SYMBOL_LIMIT;
-        let mut centres = Vec::with_capacity(vis.len());
-        let mut radii = Vec::with_capacity(vis.len());
-        let mut fills = Vec::with_capacity(vis.len());
-        let mut faded_centres = Vec::new();
-        let mut faded_radii = Vec::new();
-        let mut faded_fills = Vec::new();
-        let mut markers = Vec::new();
-        for v in vis {
-            let s = &self.systems[v.sys as usize];
-            let look = s.look as usize;
-            let c = cat.color_rgb[look];
-            let generated =
-                self.opts.mark_generated && cat.origin[s.row as usize] == Origin::Generated;
-            let symbol = Symbol::of(cat.kind[look]);
-            if symbol != Symbol::Disc && use_symbols {
-                markers.push((v, symbol, generated));
-                continue;
-            }
-            if generated {
-                faded_centres.push(v.at);
-                faded_radii.push(v.radius);
-                faded_fills.push(Rgba {
-                    r: c[0],
-                    g: c[1],
-                    b: c[2],
-                    a: 110,
-                });
-            } else {
-                centres.push(v.at);
-                radii.push(v.radius);
-                fills.push(Rgba::rgb(c[0], c[1], c[2]));
-            }
-        }
+        // Sorted into lists in pieces on all threads, then joined in
+        // order: the same lists as one pass over `vis`.
+        let parts: Vec<StarLists<'_>> = vis
+            .par_chunks(1 << 15)
+            .map(|piece| {
+                let mut l = StarLists::with_capacity(piece.len());
+                for v in piece {
+                    let s = &self.systems[v.sys as usize];
+                    let look = s.look as usize;
+                    let c = cat.color_rgb[look];
+                    let generated =
+                        self.opts.mark_generated && cat.origin[s.row as usize] == Origin::Generated;
+                    let symbol = Symbol::of(cat.kind[look]);
+                    if symbol != Symbol::Disc && use_symbols {
+                        l.markers.push((v, symbol, generated));
+                    } else if generated {
+                        l.faded_centres.push(v.at);
+                        l.faded_radii.push(v.radius);
+                        l.faded_fills.push(Rgba {
+                            r: c[0],
+                            g: c[1],
+                            b: c[2],
+                            a: 110,
+                        });
+                    } else {
+                        l.centres.push(v.at);
+                        l.radii.push(v.radius);
+                        l.fills.push(Rgba::rgb(c[0], c[1], c[2]));
+                    }
+                }
+                l
+            })
+            .collect();
+        let StarLists {
+            centres,
+            radii,
+            fills,
+            faded_centres,
+            faded_radii,
+            faded_fills,
+            markers,
+        } = StarLists::join(parts);
         if !faded_centres.is_empty() {
             items.push(Item::Stars {
                 centres_mm: faded_centres,

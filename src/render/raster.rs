@@ -178,7 +178,30 @@ struct Sprite {
 }
 
 fn radius_step(r_px: f32) -> usize {
-    ((r_px * RADIUS_STEPS_PER_PX).round() as usize).max(1)
+    (round_positive(r_px * RADIUS_STEPS_PER_PX) as usize).max(1)
+}
+
+/// `x.floor()` for finite `x`, without a library call on targets that
+/// lack a rounding instruction (baseline x86-64).
+#[inline]
+fn floor(x: f32) -> f32 {
+    // From 2^23 on every f32 is a whole number.
+    if x.abs() >= 8_388_608.0 {
+        return x;
+    }
+    let t = x as i32 as f32;
+    if t > x { t - 1.0 } else { t }
+}
+
+/// `x.round()` (halves away from zero) for finite `x ≥ 0`, like
+/// [`floor`]; the difference `x - t` is exact below 2^23.
+#[inline]
+fn round_positive(x: f32) -> f32 {
+    if x >= 8_388_608.0 {
+        return x;
+    }
+    let t = x as i32 as f32;
+    if x - t >= 0.5 { t + 1.0 } else { t }
 }
 
 fn phase(f: f32) -> usize {
@@ -376,30 +399,57 @@ impl StarLayer {
             .zip(radii_mm.par_iter())
             .map(|(c, r)| [c[0] * px_per_mm, c[1] * px_per_mm, r * px_per_mm])
             .collect();
-        let mut bins = vec![Vec::new(); bands];
-        let mut used = Vec::new();
-        for (i, p) in px.iter().enumerate() {
-            if !(p[0].is_finite() && p[1].is_finite() && p[2].is_finite()) || p[2] <= 0.0 {
-                continue;
-            }
-            let reach = p[2] + outline_px * 0.5 + 2.0;
-            let lo = ((p[1] - reach).max(0.0) / BAND_ROWS as f32) as usize;
-            let hi = ((p[1] + reach).max(0.0) / BAND_ROWS as f32) as usize;
-            if lo >= bands {
-                continue;
-            }
-            for bin in &mut bins[lo..=hi.min(bands - 1)] {
-                bin.push(i as u32);
-            }
-            if p[2] <= SPRITE_MAX_RADIUS_PX {
-                let (fx, fy) = (p[0] - p[0].floor(), p[1] - p[1].floor());
-                let k = sprite_index(radius_step(p[2]), phase(fx), phase(fy));
-                if k >= used.len() {
-                    used.resize(k + 1, false);
+        // Binned in pieces on all threads, then joined band by band in
+        // piece order: the same bins as one pass over the stars.
+        let piece = 1 << 15;
+        let parts: Vec<(Vec<Vec<u32>>, Vec<bool>)> = px
+            .par_chunks(piece)
+            .enumerate()
+            .map(|(k, stars)| {
+                let mut bins = vec![Vec::new(); bands];
+                let mut used = Vec::new();
+                for (j, p) in stars.iter().enumerate() {
+                    if !(p[0].is_finite() && p[1].is_finite() && p[2].is_finite()) || p[2] <= 0.0 {
+                        continue;
+                    }
+                    let reach = p[2] + outline_px * 0.5 + 2.0;
+                    let lo = ((p[1] - reach).max(0.0) / BAND_ROWS as f32) as usize;
+                    let hi = ((p[1] + reach).max(0.0) / BAND_ROWS as f32) as usize;
+                    if lo >= bands {
+                        continue;
+                    }
+                    let i = (k * piece + j) as u32;
+                    for bin in &mut bins[lo..=hi.min(bands - 1)] {
+                        bin.push(i);
+                    }
+                    if p[2] <= SPRITE_MAX_RADIUS_PX {
+                        let (fx, fy) = (p[0] - floor(p[0]), p[1] - floor(p[1]));
+                        let k = sprite_index(radius_step(p[2]), phase(fx), phase(fy));
+                        if k >= used.len() {
+                            used.resize(k + 1, false);
+                        }
+                        used[k] = true;
+                    }
                 }
-                used[k] = true;
+                (bins, used)
+            })
+            .collect();
+        let mut used = vec![false; parts.iter().map(|(_, u)| u.len()).max().unwrap_or(0)];
+        for (_, u) in &parts {
+            for (a, &b) in used.iter_mut().zip(u) {
+                *a |= b;
             }
         }
+        let bins: Vec<Vec<u32>> = (0..bands)
+            .into_par_iter()
+            .map(|band| {
+                let mut bin = Vec::with_capacity(parts.iter().map(|(b, _)| b[band].len()).sum());
+                for (b, _) in &parts {
+                    bin.extend_from_slice(&b[band]);
+                }
+                bin
+            })
+            .collect();
         let sprites = used
             .par_iter()
             .enumerate()
@@ -456,7 +506,7 @@ impl StarLayer {
                 );
                 continue;
             }
-            let (ix, iy) = (x.floor(), y.floor());
+            let (ix, iy) = (floor(x), floor(y));
             let k = sprite_index(radius_step(r), phase(x - ix), phase(y - iy));
             let Some(sp) = self.sprites[k].as_ref() else {
                 continue;
@@ -871,6 +921,45 @@ mod tests {
                 [c(7), c(13), c(29), a]
             })
             .collect()
+    }
+
+    #[test]
+    fn floor_and_round_match_the_standard_library() {
+        let mut xs = vec![
+            0.0f32,
+            -0.0,
+            0.5,
+            -0.5,
+            1.5,
+            2.5,
+            0.49999997,
+            -0.49999997,
+            1e-30,
+            -1e-30,
+            8_388_607.5,
+            8_388_608.0,
+            -8_388_607.5,
+            16_777_215.0,
+            3e9,
+            -3e9,
+            f32::MAX,
+            f32::MIN,
+        ];
+        // Every 1/64 step over a few thousand pixels, and their neighbours.
+        for k in -200_000..200_000 {
+            let x = k as f32 / 64.0;
+            xs.extend([x, x.next_up(), x.next_down()]);
+        }
+        for &x in &xs {
+            assert_eq!(
+                floor(x).to_bits() & !(1 << 31),
+                x.floor().to_bits() & !(1 << 31),
+                "{x}"
+            );
+            if x >= 0.0 {
+                assert_eq!(round_positive(x), x.round(), "{x}");
+            }
+        }
     }
 
     #[test]
