@@ -1142,20 +1142,26 @@ impl Ctx<'_> {
             let u1 = (f64::from(rect.x1) - frame.origin_mm[0]) / s;
             let v0 = (frame.origin_mm[1] - f64::from(rect.y1)) / s;
             let v1 = (frame.origin_mm[1] - f64::from(rect.y0)) / s;
+            // Tick numbers stop short of the axis names in the corners.
+            let x_name_from = rect.x1 - 1.0 - text_width_mm("x, ly", GRID_PT, true) - 0.8;
+            let y_name_top = rect.y1 - 1.0 - em * 1.2;
             let mut k = ((u0 + c[0]) / step).ceil() as i64;
             while (k as f64) * step - c[0] <= u1 {
                 let x = k as f64 * step;
                 let px = frame.to_page([x - c[0], 0.0])[0];
                 items.push(line([px, rect.y0], [px, rect.y1], stroke));
-                items.push(text(
-                    px + 0.6,
-                    rect.y0 + em * 1.1,
-                    &format_number(x),
-                    GRID_PT,
-                    muted,
-                    false,
-                    Anchor::Start,
-                ));
+                let number = format_number(x);
+                if px + 0.6 + text_width_mm(&number, GRID_PT, false) <= x_name_from {
+                    items.push(text(
+                        px + 0.6,
+                        rect.y0 + em * 1.1,
+                        &number,
+                        GRID_PT,
+                        muted,
+                        false,
+                        Anchor::Start,
+                    ));
+                }
                 k += 1;
             }
             let mut k = ((v0 + c[1]) / step).ceil() as i64;
@@ -1163,15 +1169,17 @@ impl Ctx<'_> {
                 let y = k as f64 * step;
                 let py = frame.to_page([0.0, y - c[1]])[1];
                 items.push(line([rect.x0, py], [rect.x1, py], stroke));
-                items.push(text(
-                    rect.x0 + 0.8,
-                    py - 0.6,
-                    &format_number(y),
-                    GRID_PT,
-                    muted,
-                    false,
-                    Anchor::Start,
-                ));
+                if py - 0.6 <= y_name_top {
+                    items.push(text(
+                        rect.x0 + 0.8,
+                        py - 0.6,
+                        &format_number(y),
+                        GRID_PT,
+                        muted,
+                        false,
+                        Anchor::Start,
+                    ));
+                }
                 k += 1;
             }
             items.push(text(

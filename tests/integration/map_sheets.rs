@@ -380,3 +380,63 @@ fn the_map_columns_are_all_a_sheet_needs() {
     }
     std::fs::remove_dir_all(&dir).ok();
 }
+
+#[test]
+fn grid_numbers_keep_clear_of_the_axis_names() {
+    use starloom::render::scene::Anchor;
+    let grid_pt = starloom::map::style::GRID_PT;
+    let mut checked = 0;
+    // Scales and centres that put a grid line at every distance from the
+    // map's right and bottom edges.
+    for mm_per_ly in [0.9, 1.0, 1.7, 2.0, 2.6] {
+        for k in 0..24 {
+            let shift = f64::from(k) * 0.73;
+            let opts = MapOptions {
+                centre_ly: Some([shift, -shift, 0.0]),
+                mm_per_ly: Some(mm_per_ly),
+                ..MapOptions::default()
+            };
+            let s = build_sheets(&known(), &opts, &Overlay::default()).unwrap();
+            let boxes: Vec<(String, Rect)> = s.sheets[0]
+                .scene
+                .items
+                .iter()
+                .filter_map(|i| match i {
+                    Item::Text {
+                        position_mm,
+                        text,
+                        size_pt,
+                        anchor,
+                        bold,
+                        ..
+                    } if *size_pt == grid_pt
+                        && (text.parse::<f64>().is_ok() || text.ends_with(", ly")) =>
+                    {
+                        let w = starloom::render::text::text_width_mm(text, *size_pt, *bold);
+                        let h = size_pt * 25.4 / 72.0;
+                        let x = match anchor {
+                            Anchor::Start => position_mm[0],
+                            Anchor::Middle => position_mm[0] - w / 2.0,
+                            Anchor::End => position_mm[0] - w,
+                        };
+                        Some((text.clone(), Rect::new(x, position_mm[1] - 0.8 * h, w, h)))
+                    }
+                    _ => None,
+                })
+                .collect();
+            let names: Vec<&(String, Rect)> =
+                boxes.iter().filter(|(t, _)| t.ends_with(", ly")).collect();
+            assert_eq!(names.len(), 2, "both axis names are drawn");
+            for (t, b) in boxes.iter().filter(|(t, _)| !t.ends_with(", ly")) {
+                for (n, nb) in &names {
+                    assert!(
+                        !b.overlaps(nb),
+                        "grid number {t} {b:?} overlaps {n} {nb:?} at {mm_per_ly} mm/ly, shift {shift}"
+                    );
+                }
+                checked += 1;
+            }
+        }
+    }
+    assert!(checked > 500, "grid numbers checked: {checked}");
+}
