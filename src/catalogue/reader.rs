@@ -15,6 +15,9 @@
 //! The file is read into memory, cut into line-aligned chunks and the
 //! chunks are parsed in parallel with hand-split fields and a fast decimal
 //! parser; files with quoted fields go through the `csv` crate instead.
+//! Rows of starloom's own header are decoded in a fixed field order, as
+//! bytes, with no per-column dispatch; any row that decoder cannot take
+//! whole goes to the general one, so both give the same values and errors.
 
 use crate::catalogue::NameColumn;
 use crate::catalogue::table::{Catalogue, CatalogueMeta, Origin};
@@ -231,6 +234,9 @@ struct Layout {
     positions: Positions,
     /// Columns parsed and stored; the others are skipped.
     wanted: Columns,
+    /// The header is the one starloom writes ([`super::csv_format::COLUMNS`]),
+    /// so rows can go through [`parse_own_fields`].
+    own_format: bool,
 }
 
 impl Layout {
@@ -243,6 +249,7 @@ impl Layout {
             names: self.names.clone(),
             positions: self.positions,
             wanted: Columns::ALL,
+            own_format: self.own_format,
         }
     }
 }
@@ -298,6 +305,7 @@ fn make_layout(path: &Path, names: Vec<String>, wanted: Columns) -> Result<Layou
     Ok(Layout {
         active: active_columns(&cols),
         cols,
+        own_format: names == super::csv_format::COLUMNS,
         names,
         positions,
         wanted,
@@ -314,15 +322,21 @@ fn make_layout(path: &Path, names: Vec<String>, wanted: Columns) -> Result<Layou
 /// (common practice, no source).
 #[inline]
 fn parse_u64(s: &str) -> Option<u64> {
-    let b = s.as_bytes();
+    parse_u64_bytes(s.as_bytes())
+}
+
+/// [`parse_u64`] of the bytes of a `str`.
+#[inline]
+fn parse_u64_bytes(b: &[u8]) -> Option<u64> {
+    let slow = || std::str::from_utf8(b).ok()?.parse().ok();
     if b.is_empty() || b.len() > 19 {
-        return s.parse().ok();
+        return slow();
     }
     let (head, eights) = b.split_at(b.len() % 8);
     let mut v = 0u64;
     for &c in head {
         if !c.is_ascii_digit() {
-            return s.parse().ok();
+            return slow();
         }
         v = v * 10 + u64::from(c - b'0');
     }
@@ -332,7 +346,7 @@ fn parse_u64(s: &str) -> Option<u64> {
         // A byte below '0' borrows into its high bit; one above '9' sets
         // it once 0x46 is added.
         if (word.wrapping_add(0x4646_4646_4646_4646) | d) & 0x8080_8080_8080_8080 != 0 {
-            return s.parse().ok();
+            return slow();
         }
         // Little-endian: the first digit is the lowest byte.
         let d = (d.wrapping_mul(10) + (d >> 8)) & 0x00ff_00ff_00ff_00ff;
@@ -357,7 +371,13 @@ const POW10: [f64; 23] = [
 /// anything else goes to the standard parser.
 #[inline]
 fn parse_f64(s: &str) -> Option<f64> {
-    let b = s.as_bytes();
+    parse_f64_bytes(s.as_bytes())
+}
+
+/// [`parse_f64`] of the bytes of a `str`.
+#[inline]
+fn parse_f64_bytes(b: &[u8]) -> Option<f64> {
+    let slow = || std::str::from_utf8(b).ok()?.parse::<f64>().ok();
     let (neg, digits) = match b.first() {
         Some(b'-') => (true, &b[1..]),
         Some(b'+') => (false, &b[1..]),
@@ -390,7 +410,7 @@ fn parse_f64(s: &str) -> Option<f64> {
     if i < digits.len() {
         // Only an exponent may follow: e or E, a sign, 1 to 3 digits.
         if !matches!(digits[i], b'e' | b'E') || n_digits == 0 {
-            return s.parse::<f64>().ok();
+            return slow();
         }
         let exp = &digits[i + 1..];
         let (exp_neg, exp_digits) = match exp.first() {
@@ -399,7 +419,7 @@ fn parse_f64(s: &str) -> Option<f64> {
             _ => (false, exp),
         };
         if exp_digits.is_empty() || exp_digits.len() > 3 {
-            return s.parse::<f64>().ok();
+            return slow();
         }
         for &c in exp_digits {
             if !c.is_ascii_digit() {
@@ -412,7 +432,7 @@ fn parse_f64(s: &str) -> Option<f64> {
         }
     }
     if n_digits == 0 || n_digits > 15 {
-        return s.parse::<f64>().ok();
+        return slow();
     }
     let scale = exponent - decimals;
     let m = mantissa as f64;
@@ -421,8 +441,80 @@ fn parse_f64(s: &str) -> Option<f64> {
     } else if (-22..0).contains(&scale) {
         m / POW10[(-scale) as usize]
     } else {
-        return s.parse::<f64>().ok();
+        return slow();
     };
+    Some(if neg { -v } else { v })
+}
+
+/// Eight ASCII digits of a little-endian word (the first digit in the
+/// lowest byte) as their value; `None` unless every byte is a digit.
+///
+/// # Speed
+/// Checked as digits, then combined in pairs, fours and eights by three
+/// multiply-and-mask steps (common practice, no source).
+#[inline(always)]
+fn eight_digits(word: u64) -> Option<u64> {
+    let d = word.wrapping_sub(0x3030_3030_3030_3030);
+    // A byte below '0' borrows into its high bit; one above '9' sets it
+    // once 0x46 is added.
+    if (word.wrapping_add(0x4646_4646_4646_4646) | d) & 0x8080_8080_8080_8080 != 0 {
+        return None;
+    }
+    let d = (d.wrapping_mul(10) + (d >> 8)) & 0x00ff_00ff_00ff_00ff;
+    let d = (d.wrapping_mul(100) + (d >> 16)) & 0x0000_ffff_0000_ffff;
+    Some((d.wrapping_mul(10_000) + (d >> 32)) & 0xffff_ffff)
+}
+
+/// [`parse_f64_bytes`] of `b[from..to]` (a trimmed field), the same value
+/// or `None`. A plain decimal `[-]digits[.digits]` of at most 16 bytes
+/// after the sign is read from the sixteen bytes of `b` that end at `to`
+/// as one 128-bit word: the bytes before the field are set to '0', the
+/// point is found and squeezed out with masks, and the digits are
+/// combined eight at a time. With a point there are at most 15 digits, a
+/// mantissa exact as a double, so one correctly rounded division by an
+/// exact power of ten gives the correctly rounded value (Clinger 1990, the
+/// fast path); without one, the only rounding is the conversion of the
+/// whole number. Either way the value is the standard parser's (which is
+/// correctly rounded); anything else goes to [`parse_f64_bytes`].
+#[inline]
+fn parse_f64_at(b: &[u8], from: usize, to: usize) -> Option<f64> {
+    const ZEROS: u128 = u128::from_ne_bytes([b'0'; 16]);
+    const DOTS: u128 = u128::from_ne_bytes([b'.'; 16]);
+    const ONES: u128 = u128::from_ne_bytes([1; 16]);
+    const HIGHS: u128 = u128::from_ne_bytes([0x80; 16]);
+    let neg = b.get(from) == Some(&b'-');
+    let start = from + usize::from(neg);
+    let n = to.saturating_sub(start);
+    if n == 0 || n > 16 || to < 16 {
+        return parse_f64_bytes(&b[from..to]);
+    }
+    let window: [u8; 16] = b[to - 16..to].try_into().expect("sixteen bytes");
+    // Little-endian: the field is the top `n` bytes, its last byte the top one.
+    let field = !0u128 << (8 * (16 - n));
+    let w = (u128::from_le_bytes(window) & field) | (ZEROS & !field);
+    let x = w ^ DOTS;
+    let dots = x.wrapping_sub(ONES) & !x & HIGHS;
+    let (digits, decimals) = if dots == 0 {
+        (w, 0)
+    } else {
+        // The lowest marked byte is a point for certain (a false mark can
+        // only sit above a true one); a second point fails the digit test.
+        let q = dots.trailing_zeros() / 8;
+        let below = (1u128 << (8 * q)) - 1;
+        let above = (!0u128).checked_shl(8 * q + 8).unwrap_or(0);
+        let squeezed = (w & above) | ((w & below) << 8) | u128::from(b'0');
+        if n == 1 {
+            return parse_f64_bytes(&b[from..to]);
+        }
+        (squeezed, 15 - q as usize)
+    };
+    let high = eight_digits(digits as u64);
+    let low = eight_digits((digits >> 64) as u64);
+    let (Some(high), Some(low)) = (high, low) else {
+        return parse_f64_bytes(&b[from..to]);
+    };
+    let mantissa = high * 100_000_000 + low;
+    let v = mantissa as f64 / POW10[decimals];
     Some(if neg { -v } else { v })
 }
 
@@ -545,18 +637,25 @@ struct RowError {
 }
 
 fn parse_hex_colour(s: &str) -> Option<[u8; 3]> {
-    let h = s.strip_prefix('#').unwrap_or(s).as_bytes();
-    if h.len() != 6 {
+    parse_hex_colour_bytes(s.as_bytes())
+}
+
+/// The colour of `#rrggbb` (or `rrggbb`), either case.
+///
+/// # Speed
+/// No branch per digit (random hex digits would defeat branch
+/// prediction): all six are checked together, and a digit's value is its
+/// low four bits, plus nine for a letter (bit 6 set).
+fn parse_hex_colour_bytes(s: &[u8]) -> Option<[u8; 3]> {
+    let h = s.strip_prefix(b"#").unwrap_or(s);
+    let h: &[u8; 6] = h.try_into().ok()?;
+    let ok = h.iter().fold(true, |ok, c| ok & c.is_ascii_hexdigit());
+    if !ok {
         return None;
     }
-    let nibble = |c: u8| match c {
-        b'0'..=b'9' => Some(c - b'0'),
-        b'a'..=b'f' => Some(c - b'a' + 10),
-        b'A'..=b'F' => Some(c - b'A' + 10),
-        _ => None,
-    };
-    let byte = |i: usize| Some(nibble(h[i])? << 4 | nibble(h[i + 1])?);
-    Some([byte(0)?, byte(2)?, byte(4)?])
+    let nibble = |c: u8| (c & 0x0f) + 9 * (c >> 6);
+    let byte = |i: usize| nibble(h[i]) << 4 | nibble(h[i + 1]);
+    Some([byte(0), byte(2), byte(4)])
 }
 
 fn parse_bool(s: &str) -> Option<bool> {
@@ -616,7 +715,7 @@ fn parse_fields<'f>(
     let (mut ra, mut dec, mut dist) = (nan, nan, nan);
     let mut kind = None;
     let mut class = None;
-    let mut num = [nan; 13];
+    let mut num = [nan; 12];
     let mut colour = None;
     let mut habitable = None;
     let mut origin = Origin::Imported;
@@ -746,6 +845,64 @@ fn parse_fields<'f>(
             return Err((col.into(), "a position is required on every row".into()));
         }
     }
+    store_row(
+        layout.wanted,
+        &RowValues {
+            id,
+            system,
+            name,
+            position,
+            kind,
+            class,
+            num,
+            colour,
+            habitable,
+            origin,
+        },
+        out,
+    )
+}
+
+/// One row's values as read: `None` or NaN where the file left a field
+/// empty or the column is not read.
+#[derive(Clone, Copy)]
+struct RowValues<'f> {
+    id: Option<u64>,
+    system: Option<u64>,
+    name: &'f str,
+    /// Galactic cartesian, ly (finite).
+    position: [f64; 3],
+    kind: Option<StarKind>,
+    class: Option<ClassCode>,
+    /// Mass, initial mass, radius, luminosity, Teff, age, lifetime, the
+    /// two habitable-zone edges, M_V, separation and period, in the
+    /// catalogue's units.
+    num: [f64; 12],
+    colour: Option<[u8; 3]>,
+    habitable: Option<bool>,
+    origin: Origin,
+}
+
+/// Appends one row's values to the `wanted` columns of `out`, with its
+/// flags of what the file left out.
+#[inline(always)]
+fn store_row(
+    w: Columns,
+    v: &RowValues<'_>,
+    out: &mut Partial,
+) -> std::result::Result<(), (String, String)> {
+    let RowValues {
+        id,
+        system,
+        name,
+        position,
+        kind,
+        class,
+        num,
+        colour,
+        habitable,
+        origin,
+    } = *v;
     let mut missing = 0u8;
     if kind.is_none() {
         missing |= MISSING_KIND;
@@ -759,7 +916,6 @@ fn parse_fields<'f>(
     if habitable.is_none() {
         missing |= MISSING_HABITABLE;
     }
-    let w = layout.wanted;
     if w != Columns::ALL {
         // A projected read derives nothing: a wanted value the row left
         // empty sends the whole file through the full read.
@@ -826,6 +982,133 @@ fn parse_fields<'f>(
     Ok(())
 }
 
+/// Field indices in starloom's own header ([`super::csv_format::COLUMNS`]).
+mod own {
+    pub const ID: usize = 0;
+    pub const SYSTEM: usize = 1;
+    pub const NAME: usize = 3;
+    pub const X: usize = 4;
+    pub const KIND: usize = 7;
+    pub const CLASS: usize = 8;
+    pub const COLOUR: usize = 18;
+    pub const HABITABLE: usize = 22;
+    pub const ORIGIN: usize = 23;
+}
+
+/// The numeric columns of starloom's own header: field index, the column
+/// set that reads it and its slot in [`RowValues::num`].
+const OWN_NUMBERS: [(usize, Columns, usize); 12] = [
+    (9, Columns::MASS, 0),
+    (10, Columns::INITIAL_MASS, 1),
+    (11, Columns::RADIUS, 2),
+    (12, Columns::LUMINOSITY, 3),
+    (13, Columns::TEFF, 4),
+    (14, Columns::AGE, 5),
+    (15, Columns::LIFETIME, 6),
+    (16, Columns::HABITABLE_ZONE, 7),
+    (17, Columns::HABITABLE_ZONE, 8),
+    (19, Columns::ABS_MAG_V, 9),
+    (20, Columns::SEPARATION, 10),
+    (21, Columns::PERIOD, 11),
+];
+
+/// [`parse_fields`] for a row of starloom's own header, whose separators
+/// are `row` (the line starts at `line_start` in `chunk`): the read fields
+/// are taken as bytes in a fixed order with no per-column dispatch. A row
+/// this cannot take whole (an empty or unusual field) goes to
+/// [`parse_fields`], so values, flags and errors are the same either way.
+#[inline]
+fn parse_own_fields<'f>(
+    layout: &Layout,
+    chunk: &'f str,
+    line_start: usize,
+    row: &[u32],
+    out: &mut Partial,
+) -> std::result::Result<(), (String, String)> {
+    let w = layout.wanted;
+    let b = chunk.as_bytes();
+    let from = |k: usize| {
+        if k == 0 {
+            line_start
+        } else {
+            (row[k - 1] & !SEP_NEWLINE) as usize + 1
+        }
+    };
+    let end = |k: usize| (row[k] & !SEP_NEWLINE) as usize;
+    let t = |k: usize| b[from(k)..end(k)].trim_ascii();
+    let plain = || -> Option<RowValues<'f>> {
+        let id_text = t(own::ID);
+        let id = parse_u64_bytes(id_text)?;
+        let system_text = t(own::SYSTEM);
+        let system = if system_text == id_text {
+            id
+        } else {
+            parse_u64_bytes(system_text)?
+        };
+        let mut position = [0.0; 3];
+        // Numbers are not trimmed here: a padded one fails the fast
+        // parsers and sends the row to the trimming reader.
+        let number = |k: usize| parse_f64_at(b, from(k), end(k));
+        for (axis, p) in position.iter_mut().enumerate() {
+            *p = number(own::X + axis).filter(|v| v.is_finite())?;
+        }
+        let mut num = [f64::NAN; 12];
+        for (k, set, slot) in OWN_NUMBERS {
+            if w.contains(set) {
+                num[slot] = number(k)?;
+            }
+        }
+        let read = |set: Columns| w.contains(set).then_some(());
+        Some(RowValues {
+            id: Some(id),
+            system: Some(system),
+            name: match read(Columns::NAME) {
+                // Cut from the `str` itself (at ASCII commas), so not
+                // checked as UTF-8 again.
+                Some(()) => chunk[from(own::NAME)..end(own::NAME)].trim_ascii(),
+                None => "",
+            },
+            position,
+            kind: match read(Columns::KIND) {
+                Some(()) => Some(StarKind::parse_bytes(t(own::KIND))?),
+                None => None,
+            },
+            class: match read(Columns::CLASS) {
+                Some(()) => {
+                    let s = t(own::CLASS);
+                    if s.is_empty() || s.len() > 15 || !s.is_ascii() {
+                        return None;
+                    }
+                    // What `from_str_lossy` keeps of short ASCII text: all of it.
+                    Some(ClassCode::from_ascii(s))
+                }
+                None => None,
+            },
+            num,
+            colour: match read(Columns::COLOUR) {
+                Some(()) => Some(parse_hex_colour_bytes(t(own::COLOUR))?),
+                None => None,
+            },
+            habitable: match read(Columns::HABITABLE_HOST) {
+                Some(()) => Some(match t(own::HABITABLE) {
+                    b"false" => false,
+                    b"true" => true,
+                    _ => return None,
+                }),
+                None => None,
+            },
+            origin: match read(Columns::ORIGIN) {
+                Some(()) => Origin::parse_bytes(t(own::ORIGIN))?,
+                None => Origin::Imported,
+            },
+        })
+    };
+    match plain() {
+        Some(v) => store_row(w, &v, out),
+        None => parse_fields(layout, |k| &chunk[from(k)..end(k)], out),
+    }
+}
+
 /// Parses the rows of `chunk` (whole lines of the body).
 ///
 /// # Speed
@@ -854,6 +1137,9 @@ fn parse_chunk_into(
             .or_else(|| memchr::memchr(b'\n', &b[half..]).map(|i| half + i))
             .map_or(b.len(), |i| i + 1);
         if mid >= b.len() {
+            if memchr::memchr(b'"', b).is_some() {
+                return Err(quoted_chunk());
+            }
             // One line: there is nothing to list.
             let mut fields = Vec::new();
             let line = chunk.strip_suffix('\n').unwrap_or(chunk);
@@ -874,10 +1160,25 @@ fn parse_chunk_into(
         return Ok(());
     }
     let mut seps = std::mem::take(&mut out.seps);
-    find_separators(b, &mut seps);
-    let result = parse_rows(layout, chunk, &seps, out);
+    let result = if find_separators(b, &mut seps) {
+        Err(quoted_chunk())
+    } else {
+        parse_rows(layout, chunk, &seps, out)
+    };
     out.seps = seps;
     result
+}
+
+/// The message of a chunk that holds a double quote, which only the
+/// quoting reader splits correctly.
+const HAS_QUOTES: &str = "has quoted fields";
+
+fn quoted_chunk() -> RowError {
+    RowError {
+        line_in_chunk: 0,
+        column: String::new(),
+        message: HAS_QUOTES.into(),
+    }
 }
 
 /// The flag on a separator offset that marks a line end (the others are
@@ -885,16 +1186,19 @@ fn parse_chunk_into(
 const SEP_NEWLINE: u32 = 1 << 31;
 
 /// Fills `seps` with the offset of every comma and line end in `b`, in
-/// order, line ends flagged with [`SEP_NEWLINE`] (`b` is under 2 GiB).
+/// order, line ends flagged with [`SEP_NEWLINE`] (`b` is under 2 GiB);
+/// true when `b` holds a double quote.
 ///
 /// # Speed
 /// Sixty-four bytes at a time: four 16-byte vector compares per byte kind
 /// (SSE2 on x86-64, NEON on AArch64, plain code elsewhere, through `wide`)
-/// give a bit mask of the block, whose set bits are then listed.
-fn find_separators(b: &[u8], seps: &mut Vec<u32>) {
+/// give a bit mask of the block, whose set bits are then listed. The
+/// quote test rides along, so the chunk is not searched a second time.
+fn find_separators(b: &[u8], seps: &mut Vec<u32>) -> bool {
     use wide::u8x16;
-    let (comma, newline) = (u8x16::splat(b','), u8x16::splat(b'\n'));
+    let (comma, newline, quote) = (u8x16::splat(b','), u8x16::splat(b'\n'), u8x16::splat(b'"'));
     seps.clear();
+    let mut quotes = u8x16::splat(0);
     let mut pos = 0usize;
     while pos + 64 <= b.len() {
         let (mut commas, mut ends) = (0u64, 0u64);
@@ -902,6 +1206,7 @@ fn find_separators(b: &[u8], seps: &mut Vec<u32>) {
             let v = u8x16::new(lane.try_into().expect("16 bytes"));
             commas |= u64::from(v.simd_eq(comma).to_bitmask()) << (16 * q);
             ends |= u64::from(v.simd_eq(newline).to_bitmask()) << (16 * q);
+            quotes |= v.simd_eq(quote);
         }
         let mut bits = commas | ends;
         while bits != 0 {
@@ -911,13 +1216,16 @@ fn find_separators(b: &[u8], seps: &mut Vec<u32>) {
         }
         pos += 64;
     }
+    let mut quoted = quotes.to_bitmask() != 0;
     for (at, &c) in b.iter().enumerate().skip(pos) {
         match c {
             b',' => seps.push(at as u32),
             b'\n' => seps.push(at as u32 | SEP_NEWLINE),
+            b'"' => quoted = true,
             _ => {}
         }
     }
+    quoted
 }
 
 /// Parses the rows of `chunk`, whose separators are `seps`.
@@ -928,8 +1236,9 @@ fn parse_rows(
     out: &mut Partial,
 ) -> std::result::Result<(), RowError> {
     let b = chunk.as_bytes();
-    out.reserve(seps.iter().filter(|&&s| s & SEP_NEWLINE != 0).count() + 1);
     let ncols = layout.cols.len();
+    // Exact when every row is well formed; a hint otherwise.
+    out.reserve(seps.len() / ncols + 1);
     let off = |s: u32| (s & !SEP_NEWLINE) as usize;
     let mut fields: Vec<&str> = Vec::with_capacity(ncols + 1);
     let mut line_no = 0u64;
@@ -959,7 +1268,12 @@ fn parse_rows(
                 // field's spaces.
                 &chunk[from..off(row[k])]
             };
-            parse_fields(layout, field, out).map_err(at_line(line_no))?;
+            if layout.own_format {
+                parse_own_fields(layout, chunk, line_start, row, out)
+            } else {
+                parse_fields(layout, field, out)
+            }
+            .map_err(at_line(line_no))?;
             line_start = off(row[ncols - 1]) + 1;
             i += ncols;
         } else {
@@ -1389,12 +1703,15 @@ fn parse_piece(
     lines: &[u8],
     out: &mut Partial,
 ) -> std::result::Result<(), PieceError> {
-    if memchr::memchr(b'"', lines).is_some() {
-        return Err(PieceError::Quoted);
-    }
     let text =
         std::str::from_utf8(lines).map_err(|e| PieceError::Utf8(from + e.valid_up_to() as u64))?;
-    parse_chunk_into(layout, text, out).map_err(|e| PieceError::Row(from, e))
+    parse_chunk_into(layout, text, out).map_err(|e| {
+        if e.message == HAS_QUOTES {
+            PieceError::Quoted
+        } else {
+            PieceError::Row(from, e)
+        }
+    })
 }
 
 /// Appends the rows of `parts`, in order, to `all` (same wanted columns),
@@ -1985,9 +2302,120 @@ mod tests {
     }
 
     #[test]
+    fn word_parser_matches_the_standard_parser() {
+        // Every string is read inside a line, after bytes that look like
+        // numbers, points and commas, at every offset from the line start.
+        let mut texts: Vec<String> = [
+            "-344.573",
+            "0.0078239",
+            "3402",
+            "678.2",
+            "0",
+            "-0",
+            "-0.0",
+            "5.",
+            ".5",
+            "-.5",
+            ".",
+            "-",
+            "-.",
+            "1.2.3",
+            "12..3",
+            "1e5",
+            "+3.25",
+            " 1.5",
+            "1.5 ",
+            "1,5",
+            "--1",
+            "0.1",
+            "9007199254740991",
+            "9007199254740992",
+            "9007199254740993",
+            "1234567890123456",
+            "123456789012345.6",
+            "12345678901234567",
+            "0.000000000000001",
+            "999999999999999.",
+            "00012.500",
+            "1x",
+            "x1",
+            "12345678.12345678",
+            "1234567.12345678",
+            "-1234567.1234567",
+        ]
+        .map(String::from)
+        .to_vec();
+        // Edge digits and lengths 1 to 17 with the point at every place.
+        for len in 1..=17usize {
+            for point in 0..=len {
+                for digit in ["0", "1", "5", "9"] {
+                    let mut t = digit.repeat(len);
+                    if point < len {
+                        t.insert(point, '.');
+                    }
+                    texts.push(t.clone());
+                    texts.push(format!("-{t}"));
+                }
+            }
+        }
+        use rand::{RngExt, SeedableRng};
+        let mut rng = crate::seed::StarRng::seed_from_u64(1);
+        for _ in 0..20_000 {
+            let v: f64 = rng.random_range(-1000.0..1000.0) * 10f64.powi(rng.random_range(-6..6));
+            texts.push(format!("{v:.*}", rng.random_range(0..12)));
+            texts.push(format!("{v}"));
+        }
+        for t in &texts {
+            for junk in [0usize, 3, 15, 16, 17, 30] {
+                let line = format!(
+                    "{}{t},7.5\n",
+                    "9.,-".chars().cycle().take(junk).collect::<String>()
+                );
+                let (from, to) = (junk, junk + t.len());
+                let got = parse_f64_at(line.as_bytes(), from, to);
+                let want = t.parse::<f64>().ok();
+                assert_eq!(
+                    got.map(f64::to_bits),
+                    want.map(f64::to_bits),
+                    "{t:?} after {junk} bytes"
+                );
+            }
+        }
+    }
+
+    #[test]
+    fn hex_colours_parse_as_the_standard_radix_parser_does() {
+        for a in 0u8..=127 {
+            for b in 0u8..=127 {
+                let pair = [a, b];
+                let Ok(p) = std::str::from_utf8(&pair) else {
+                    continue;
+                };
+                let want = pair
+                    .iter()
+                    .all(u8::is_ascii_hexdigit)
+                    .then(|| u8::from_str_radix(p, 16).ok())
+                    .flatten();
+                let text = format!("#{p}a0{p}");
+                assert_eq!(
+                    parse_hex_colour(&text),
+                    want.map(|v| [v, 0xa0, v]),
+                    "{text:?}"
+                );
+            }
+        }
+        assert_eq!(parse_hex_colour("ffcc88"), Some([0xff, 0xcc, 0x88]));
+        assert_eq!(parse_hex_colour("#FFcC8"), None);
+        assert_eq!(parse_hex_colour("#ffcc880"), None);
+    }
+
+    #[test]
     fn separators_match_a_plain_search() {
         let line = b"a,,bc,defghijk,lmnopqrstu,v,w,xyz0123456789,,end\n+-\xac\x2c\xc3\xa9,\n\n";
-        let text: Vec<u8> = line.iter().copied().cycle().take(5 * line.len()).collect();
+        let mut text: Vec<u8> = line.iter().copied().cycle().take(5 * line.len()).collect();
+        // One double quote, so that some windows hold it and some do not.
+        let quote_at = 2 * line.len() + 7;
+        text[quote_at] = b'"';
         let mut seps = Vec::new();
         for start in 0..text.len() {
             for end in [text.len(), start + 63, start + 64, start + 65, start + 130] {
@@ -1999,8 +2427,9 @@ mod tests {
                         _ => None,
                     })
                     .collect();
-                find_separators(b, &mut seps);
+                let quoted = find_separators(b, &mut seps);
                 assert_eq!(seps, want, "{start}..{end}");
+                assert_eq!(quoted, b.contains(&b'"'), "{start}..{end}");
             }
         }
     }
@@ -2141,6 +2570,91 @@ mod tests {
         if wanted.contains(Columns::SEPARATION) {
             assert_eq!(bits(&a.separation_au), bits(&b.separation_au));
         }
+    }
+
+    /// Every column of two partial reads, bit for bit, with their flags.
+    fn same_partials(a: &Partial, b: &Partial) {
+        same_columns(&a.cat, &b.cat, a.wanted);
+        let bits = |v: &[f64]| v.iter().map(|x| x.to_bits()).collect::<Vec<_>>();
+        let (x, y) = (&a.cat, &b.cat);
+        for (p, q) in [
+            (&x.mass_msun, &y.mass_msun),
+            (&x.initial_mass_msun, &y.initial_mass_msun),
+            (&x.radius_rsun, &y.radius_rsun),
+            (&x.age_gyr, &y.age_gyr),
+            (&x.lifetime_gyr, &y.lifetime_gyr),
+            (&x.hz_inner_au, &y.hz_inner_au),
+            (&x.hz_outer_au, &y.hz_outer_au),
+            (&x.abs_mag_v, &y.abs_mag_v),
+            (&x.period_days, &y.period_days),
+        ] {
+            assert_eq!(bits(p), bits(q));
+        }
+        assert_eq!(a.missing, b.missing);
+        assert_eq!((&a.no_id, &a.no_system), (&b.no_id, &b.no_system));
+    }
+
+    #[test]
+    fn own_layout_rows_read_as_the_general_reader_reads_them() {
+        let mut lines: Vec<String> = own_format_csv(40).lines().map(String::from).collect();
+        // Rows the fast decoder must hand to the general one: padding,
+        // empty fields, other spellings, exponents, a carriage return.
+        let edits: [(usize, usize, &str); 14] = [
+            (1, 0, " 7"),
+            (2, 1, ""),
+            (3, 4, " 1.5 "),
+            (4, 5, "2e1"),
+            (5, 7, "White_Dwarf"),
+            (6, 8, ""),
+            (7, 9, ""),
+            (8, 12, "+1.25"),
+            (9, 18, "#FFC486"),
+            (10, 18, ""),
+            (11, 22, "yes"),
+            (12, 23, "hipparcos\r"),
+            (13, 3, "  Padded name "),
+            (14, 12, "nan"),
+        ];
+        for (row, field, text) in edits {
+            let mut f: Vec<String> = lines[row].split(',').map(String::from).collect();
+            f[field] = text.to_string();
+            lines[row] = f.join(",");
+        }
+        let text = lines.join("\n") + "\n";
+        let (header, body) = text.split_once('\n').unwrap();
+        let names: Vec<String> = header.split(',').map(String::from).collect();
+        for wanted in [
+            Columns::ALL,
+            crate::map::CATALOGUE_COLUMNS,
+            crate::routes::CATALOGUE_COLUMNS,
+            Columns::POSITIONS,
+        ] {
+            let own = make_layout(Path::new("t.csv"), names.clone(), wanted).unwrap();
+            assert!(own.own_format);
+            let mut general = make_layout(Path::new("t.csv"), names.clone(), wanted).unwrap();
+            general.own_format = false;
+            match (parse_chunk(&own, body), parse_chunk(&general, body)) {
+                (Ok(a), Ok(b)) => same_partials(&a, &b),
+                (Err(a), Err(b)) => {
+                    assert_eq!(
+                        (a.line_in_chunk, a.column, a.message),
+                        (b.line_in_chunk, b.column, b.message)
+                    );
+                }
+                _ => panic!("one reader failed and the other did not, for {wanted:?}"),
+            }
+        }
+        // And a row that is wrong: the same error from both.
+        let bad = body.replacen("#ffc486", "#ffc48g", 1);
+        let own = make_layout(Path::new("t.csv"), names.clone(), Columns::ALL).unwrap();
+        let mut general = make_layout(Path::new("t.csv"), names, Columns::ALL).unwrap();
+        general.own_format = false;
+        let (a, b) = (parse_chunk(&own, &bad), parse_chunk(&general, &bad));
+        let (Err(a), Err(b)) = (a, b) else {
+            panic!("a bad colour must fail")
+        };
+        assert_eq!((a.line_in_chunk, &a.column), (b.line_in_chunk, &b.column));
+        assert_eq!(a.column, "colour_hex");
     }
 
     #[test]

@@ -28,10 +28,15 @@ impl Origin {
 
     /// Parses a value of the `origin` column.
     pub fn parse(text: &str) -> Option<Origin> {
+        Origin::parse_bytes(text.as_bytes())
+    }
+
+    /// [`Origin::parse`] of the bytes of a value.
+    pub fn parse_bytes(text: &[u8]) -> Option<Origin> {
         match text {
-            "generated" => Some(Origin::Generated),
-            "imported" => Some(Origin::Imported),
-            "hipparcos" => Some(Origin::Hipparcos),
+            b"generated" => Some(Origin::Generated),
+            b"imported" => Some(Origin::Imported),
+            b"hipparcos" => Some(Origin::Hipparcos),
             _ => None,
         }
     }
@@ -316,6 +321,15 @@ mod tests {
             }
         }
         out
+    }
+
+    #[test]
+    fn origins_parse_back_from_their_names_only() {
+        for o in [Origin::Generated, Origin::Imported, Origin::Hipparcos] {
+            assert_eq!(Origin::parse(o.as_str()), Some(o));
+            assert_eq!(Origin::parse(&o.as_str().to_ascii_uppercase()), None);
+        }
+        assert_eq!(Origin::parse(""), None);
     }
 
     #[test]

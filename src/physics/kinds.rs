@@ -62,7 +62,24 @@ impl StarKind {
 
     /// Parses a name written by [`StarKind::as_str`].
     pub fn parse(name: &str) -> Option<StarKind> {
-        StarKind::ALL.into_iter().find(|k| k.as_str() == name)
+        StarKind::parse_bytes(name.as_bytes())
+    }
+
+    /// [`StarKind::parse`] of the bytes of a name.
+    pub fn parse_bytes(name: &[u8]) -> Option<StarKind> {
+        Some(match name {
+            b"main-sequence" => StarKind::MainSequence,
+            b"subgiant" => StarKind::Subgiant,
+            b"giant" => StarKind::Giant,
+            b"core-helium" => StarKind::CoreHelium,
+            b"asymptotic-giant" => StarKind::AsymptoticGiant,
+            b"supergiant" => StarKind::Supergiant,
+            b"white-dwarf" => StarKind::WhiteDwarf,
+            b"neutron-star" => StarKind::NeutronStar,
+            b"black-hole" => StarKind::BlackHole,
+            b"brown-dwarf" => StarKind::BrownDwarf,
+            _ => return None,
+        })
     }
 
     /// The comma-separated list of all names, for error messages.
@@ -288,5 +305,22 @@ impl StarProfile {
     pub fn color_hex(&self) -> String {
         let [r, g, b] = self.color_rgb;
         format!("#{r:02x}{g:02x}{b:02x}")
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::StarKind;
+
+    #[test]
+    fn every_kind_parses_back_from_its_name_and_nothing_else_does() {
+        for k in StarKind::ALL {
+            assert_eq!(StarKind::parse(k.as_str()), Some(k), "{}", k.as_str());
+            assert_eq!(StarKind::parse_bytes(k.as_str().as_bytes()), Some(k));
+            let upper = k.as_str().to_ascii_uppercase();
+            assert_eq!(StarKind::parse(&upper), None, "{upper}");
+            assert_eq!(StarKind::parse(&format!("{} ", k.as_str())), None);
+        }
+        assert_eq!(StarKind::parse(""), None);
     }
 }
