@@ -317,9 +317,7 @@ fn make_layout(path: &Path, names: Vec<String>, wanted: Columns) -> Result<Layou
 /// standard parser.
 ///
 /// # Speed
-/// Eight digits at a time in one 64-bit word: checked as digits, then
-/// combined in pairs, fours and eights by three multiply-and-mask steps
-/// (common practice, no source).
+/// Eight digits at a time in one 64-bit word ([`eight_digits`]).
 #[inline]
 fn parse_u64(s: &str) -> Option<u64> {
     parse_u64_bytes(s.as_bytes())
@@ -341,17 +339,10 @@ fn parse_u64_bytes(b: &[u8]) -> Option<u64> {
         v = v * 10 + u64::from(c - b'0');
     }
     for w in eights.chunks_exact(8) {
-        let word = u64::from_le_bytes(w.try_into().expect("eight bytes"));
-        let d = word.wrapping_sub(0x3030_3030_3030_3030);
-        // A byte below '0' borrows into its high bit; one above '9' sets
-        // it once 0x46 is added.
-        if (word.wrapping_add(0x4646_4646_4646_4646) | d) & 0x8080_8080_8080_8080 != 0 {
-            return slow();
-        }
         // Little-endian: the first digit is the lowest byte.
-        let d = (d.wrapping_mul(10) + (d >> 8)) & 0x00ff_00ff_00ff_00ff;
-        let d = (d.wrapping_mul(100) + (d >> 16)) & 0x0000_ffff_0000_ffff;
-        let d = (d.wrapping_mul(10_000) + (d >> 32)) & 0xffff_ffff;
+        let Some(d) = eight_digits(u64::from_le_bytes(w.try_into().expect("eight bytes"))) else {
+            return slow();
+        };
         v = v * 100_000_000 + d;
     }
     Some(v)
