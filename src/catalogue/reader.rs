@@ -473,11 +473,12 @@ fn parse_f64_at(b: &[u8], from: usize, to: usize) -> Option<f64> {
     const DOTS: u128 = u128::from_ne_bytes([b'.'; 16]);
     const ONES: u128 = u128::from_ne_bytes([1; 16]);
     const HIGHS: u128 = u128::from_ne_bytes([0x80; 16]);
+    let slow = || parse_f64_bytes(&b[from..to]);
     let neg = b.get(from) == Some(&b'-');
     let start = from + usize::from(neg);
     let n = to.saturating_sub(start);
     if n == 0 || n > 16 || to < 16 {
-        return parse_f64_bytes(&b[from..to]);
+        return slow();
     }
     let window: [u8; 16] = b[to - 16..to].try_into().expect("sixteen bytes");
     // Little-endian: the field is the top `n` bytes, its last byte the top one.
@@ -495,14 +496,14 @@ fn parse_f64_at(b: &[u8], from: usize, to: usize) -> Option<f64> {
         let above = (!0u128).checked_shl(8 * q + 8).unwrap_or(0);
         let squeezed = (w & above) | ((w & below) << 8) | u128::from(b'0');
         if n == 1 {
-            return parse_f64_bytes(&b[from..to]);
+            return slow();
         }
         (squeezed, 15 - q as usize)
     };
     let high = eight_digits(digits as u64);
     let low = eight_digits((digits >> 64) as u64);
     let (Some(high), Some(low)) = (high, low) else {
-        return parse_f64_bytes(&b[from..to]);
+        return slow();
     };
     let mantissa = high * 100_000_000 + low;
     let v = mantissa as f64 / POW10[decimals];
@@ -650,13 +651,18 @@ fn parse_hex_colour_bytes(s: &[u8]) -> Option<[u8; 3]> {
 }
 
 fn parse_bool(s: &str) -> Option<bool> {
+    parse_bool_bytes(s.as_bytes())
+}
+
+#[inline]
+fn parse_bool_bytes(s: &[u8]) -> Option<bool> {
     // The words starloom writes, first.
     match s {
-        "false" => return Some(false),
-        "true" => return Some(true),
+        b"false" => return Some(false),
+        b"true" => return Some(true),
         _ => {}
     }
-    let is = |word: &str| s.eq_ignore_ascii_case(word);
+    let is = |word: &str| s.eq_ignore_ascii_case(word.as_bytes());
     if is("true") || is("1") || is("yes") || is("y") {
         Some(true)
     } else if is("false") || is("0") || is("no") || is("n") {
@@ -973,34 +979,63 @@ fn store_row(
     Ok(())
 }
 
-/// Field indices in starloom's own header ([`super::csv_format::COLUMNS`]).
+/// The index of `name` in starloom's own header
+/// ([`super::csv_format::COLUMNS`]); evaluated at compile time, so a name
+/// the header lacks stops the build.
+const fn own_column(name: &str) -> usize {
+    const fn same(a: &[u8], b: &[u8]) -> bool {
+        if a.len() != b.len() {
+            return false;
+        }
+        let mut i = 0;
+        while i < a.len() {
+            if a[i] != b[i] {
+                return false;
+            }
+            i += 1;
+        }
+        true
+    }
+    let cols = &super::csv_format::COLUMNS;
+    let mut i = 0;
+    while i < cols.len() {
+        if same(cols[i].as_bytes(), name.as_bytes()) {
+            return i;
+        }
+        i += 1;
+    }
+    panic!("not a column of starloom's own header")
+}
+
+/// Field indices in starloom's own header.
 mod own {
-    pub const ID: usize = 0;
-    pub const SYSTEM: usize = 1;
-    pub const NAME: usize = 3;
-    pub const X: usize = 4;
-    pub const KIND: usize = 7;
-    pub const CLASS: usize = 8;
-    pub const COLOUR: usize = 18;
-    pub const HABITABLE: usize = 22;
-    pub const ORIGIN: usize = 23;
+    use super::own_column;
+    pub const ID: usize = own_column("id");
+    pub const SYSTEM: usize = own_column("system");
+    pub const NAME: usize = own_column("name");
+    pub const XYZ: [usize; 3] = [own_column("x_ly"), own_column("y_ly"), own_column("z_ly")];
+    pub const KIND: usize = own_column("kind");
+    pub const CLASS: usize = own_column("class");
+    pub const COLOUR: usize = own_column("colour_hex");
+    pub const HABITABLE: usize = own_column("habitable_host");
+    pub const ORIGIN: usize = own_column("origin");
 }
 
 /// The numeric columns of starloom's own header: field index, the column
 /// set that reads it and its slot in [`RowValues::num`].
 const OWN_NUMBERS: [(usize, Columns, usize); 12] = [
-    (9, Columns::MASS, 0),
-    (10, Columns::INITIAL_MASS, 1),
-    (11, Columns::RADIUS, 2),
-    (12, Columns::LUMINOSITY, 3),
-    (13, Columns::TEFF, 4),
-    (14, Columns::AGE, 5),
-    (15, Columns::LIFETIME, 6),
-    (16, Columns::HABITABLE_ZONE, 7),
-    (17, Columns::HABITABLE_ZONE, 8),
-    (19, Columns::ABS_MAG_V, 9),
-    (20, Columns::SEPARATION, 10),
-    (21, Columns::PERIOD, 11),
+    (own_column("mass_msun"), Columns::MASS, 0),
+    (own_column("initial_mass_msun"), Columns::INITIAL_MASS, 1),
+    (own_column("radius_rsun"), Columns::RADIUS, 2),
+    (own_column("luminosity_lsun"), Columns::LUMINOSITY, 3),
+    (own_column("teff_k"), Columns::TEFF, 4),
+    (own_column("age_gyr"), Columns::AGE, 5),
+    (own_column("lifetime_gyr"), Columns::LIFETIME, 6),
+    (own_column("hz_inner_au"), Columns::HABITABLE_ZONE, 7),
+    (own_column("hz_outer_au"), Columns::HABITABLE_ZONE, 8),
+    (own_column("abs_mag_v"), Columns::ABS_MAG_V, 9),
+    (own_column("separation_au"), Columns::SEPARATION, 10),
+    (own_column("period_days"), Columns::PERIOD, 11),
 ];
 
 /// [`parse_fields`] for a row of starloom's own header, whose separators
@@ -1018,14 +1053,8 @@ fn parse_own_fields<'f>(
 ) -> std::result::Result<(), (String, String)> {
     let w = layout.wanted;
     let b = chunk.as_bytes();
-    let from = |k: usize| {
-        if k == 0 {
-            line_start
-        } else {
-            (row[k - 1] & !SEP_NEWLINE) as usize + 1
-        }
-    };
-    let end = |k: usize| (row[k] & !SEP_NEWLINE) as usize;
+    let from = |k: usize| field_start(line_start, row, k);
+    let end = |k: usize| field_end(row, k);
     let t = |k: usize| b[from(k)..end(k)].trim_ascii();
     let plain = || -> Option<RowValues<'f>> {
         let id_text = t(own::ID);
@@ -1040,8 +1069,8 @@ fn parse_own_fields<'f>(
         // Numbers are not trimmed here: a padded one fails the fast
         // parsers and sends the row to the trimming reader.
         let number = |k: usize| parse_f64_at(b, from(k), end(k));
-        for (axis, p) in position.iter_mut().enumerate() {
-            *p = number(own::X + axis).filter(|v| v.is_finite())?;
+        for (p, k) in position.iter_mut().zip(own::XYZ) {
+            *p = number(k).filter(|v| v.is_finite())?;
         }
         let mut num = [f64::NAN; 12];
         for (k, set, slot) in OWN_NUMBERS {
@@ -1081,11 +1110,7 @@ fn parse_own_fields<'f>(
                 None => None,
             },
             habitable: match read(Columns::HABITABLE_HOST) {
-                Some(()) => Some(match t(own::HABITABLE) {
-                    b"false" => false,
-                    b"true" => true,
-                    _ => return None,
-                }),
+                Some(()) => Some(parse_bool_bytes(t(own::HABITABLE))?),
                 None => None,
             },
             origin: match read(Columns::ORIGIN) {
@@ -1176,6 +1201,26 @@ fn quoted_chunk() -> RowError {
 /// commas).
 const SEP_NEWLINE: u32 = 1 << 31;
 
+/// Where field `k` of a well-formed row starts: the row starts at
+/// `line_start` and its separators are `row`.
+#[inline(always)]
+fn field_start(line_start: usize, row: &[u32], k: usize) -> usize {
+    if k == 0 {
+        line_start
+    } else {
+        (row[k - 1] & !SEP_NEWLINE) as usize + 1
+    }
+}
+
+/// Where field `k` of a well-formed row with separators `row` ends (at its
+/// separator). Cutting at ASCII bytes keeps every piece of a `str` valid
+/// UTF-8; a carriage return before the line end is left for the field's
+/// trimming.
+#[inline(always)]
+fn field_end(row: &[u32], k: usize) -> usize {
+    (row[k] & !SEP_NEWLINE) as usize
+}
+
 /// Fills `seps` with the offset of every comma and line end in `b`, in
 /// order, line ends flagged with [`SEP_NEWLINE`] (`b` is under 2 GiB);
 /// true when `b` holds a double quote.
@@ -1248,21 +1293,14 @@ fn parse_rows(
             && row[ncols - 1] & SEP_NEWLINE != 0
             && row[..ncols - 1].iter().fold(0, |a, &s| a | s) & SEP_NEWLINE == 0
         {
-            let field = |k: usize| {
-                let from = if k == 0 {
-                    line_start
-                } else {
-                    off(row[k - 1]) + 1
-                };
-                // Cutting at ASCII bytes keeps every piece valid UTF-8; a
-                // carriage return before the line end is trimmed with the
-                // field's spaces.
-                &chunk[from..off(row[k])]
-            };
             if layout.own_format {
                 parse_own_fields(layout, chunk, line_start, row, out)
             } else {
-                parse_fields(layout, field, out)
+                parse_fields(
+                    layout,
+                    |k| &chunk[field_start(line_start, row, k)..field_end(row, k)],
+                    out,
+                )
             }
             .map_err(at_line(line_no))?;
             line_start = off(row[ncols - 1]) + 1;
@@ -2294,8 +2332,8 @@ mod tests {
 
     #[test]
     fn word_parser_matches_the_standard_parser() {
-        // Every string is read inside a line, after bytes that look like
-        // numbers, points and commas, at every offset from the line start.
+        // Every string is read inside a line, after 0 to 30 bytes that look
+        // like numbers, points and commas.
         let mut texts: Vec<String> = [
             "-344.573",
             "0.0078239",
