@@ -277,15 +277,21 @@ pub fn run(args: MapArgs) -> anyhow::Result<ExitCode> {
     stages.done("draw, encode, write");
     let [rows, cols] = sheets.tiles;
     if rows * cols > 1 {
-        println!(
-            "wrote {} sheets ({rows} × {cols} tiles and an index) at {} to {}",
+        let tiles = format!(
+            "an index sheet and {} tiles ({rows} rows × {cols} columns) at {}",
             rows * cols,
-            map::scale::describe_scale(sheets.mm_per_ly),
-            paths
-                .first()
-                .map(|p| p.display().to_string())
-                .unwrap_or_default()
+            map::scale::describe_scale(sheets.mm_per_ly)
         );
+        match paths.as_slice() {
+            [one] => println!("wrote {}: {tiles}, one page each", one.display()),
+            [first, .., last] => println!(
+                "wrote {tiles}: {} and {} … {}",
+                first.display(),
+                paths[1].display(),
+                last.display()
+            ),
+            [] => {}
+        }
     } else {
         println!(
             "wrote {} ({} systems, {})",

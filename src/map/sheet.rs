@@ -1137,31 +1137,25 @@ impl Ctx<'_> {
         let c = self.proj.centre_ly;
         let em = GRID_PT * MM_PER_PT;
         let muted = self.pal.muted;
+        let mut texts = GridTexts::new(rect);
         if self.proj.is_top() {
             let u0 = (f64::from(rect.x0) - frame.origin_mm[0]) / s;
             let u1 = (f64::from(rect.x1) - frame.origin_mm[0]) / s;
             let v0 = (frame.origin_mm[1] - f64::from(rect.y1)) / s;
             let v1 = (frame.origin_mm[1] - f64::from(rect.y0)) / s;
-            // Tick numbers stop short of the axis names in the corners.
-            let x_name_from = rect.x1 - 1.0 - text_width_mm("x, ly", GRID_PT, true) - 0.8;
-            let y_name_top = rect.y1 - 1.0 - em * 1.2;
+            // The axis names in the corners come first; tick numbers that
+            // would touch them, each other or the frame are left out.
+            let x_name = [rect.x1 - 1.0, rect.y0 + em * 1.1];
+            let y_name = [rect.x0 + 0.8, rect.y1 - 1.0];
+            texts.reserve(x_name, "x, ly", true, Anchor::End);
+            texts.reserve(y_name, "y, ly", true, Anchor::Start);
             let mut k = ((u0 + c[0]) / step).ceil() as i64;
             while (k as f64) * step - c[0] <= u1 {
                 let x = k as f64 * step;
                 let px = frame.to_page([x - c[0], 0.0])[0];
                 items.push(line([px, rect.y0], [px, rect.y1], stroke));
-                let number = format_number(x);
-                if px + 0.6 + text_width_mm(&number, GRID_PT, false) <= x_name_from {
-                    items.push(text(
-                        px + 0.6,
-                        rect.y0 + em * 1.1,
-                        &number,
-                        GRID_PT,
-                        muted,
-                        false,
-                        Anchor::Start,
-                    ));
-                }
+                let at = [px + 0.6, rect.y0 + em * 1.1];
+                texts.put(at, &format_number(x), Anchor::Start, muted, items);
                 k += 1;
             }
             let mut k = ((v0 + c[1]) / step).ceil() as i64;
@@ -1169,37 +1163,16 @@ impl Ctx<'_> {
                 let y = k as f64 * step;
                 let py = frame.to_page([0.0, y - c[1]])[1];
                 items.push(line([rect.x0, py], [rect.x1, py], stroke));
-                if py - 0.6 <= y_name_top {
-                    items.push(text(
-                        rect.x0 + 0.8,
-                        py - 0.6,
-                        &format_number(y),
-                        GRID_PT,
-                        muted,
-                        false,
-                        Anchor::Start,
-                    ));
-                }
+                let at = [rect.x0 + 0.8, py - 0.6];
+                texts.put(at, &format_number(y), Anchor::Start, muted, items);
                 k += 1;
             }
-            items.push(text(
-                rect.x1 - 1.0,
-                rect.y0 + em * 1.1,
-                "x, ly",
-                GRID_PT,
-                muted,
-                true,
-                Anchor::End,
-            ));
-            items.push(text(
-                rect.x0 + 0.8,
-                rect.y1 - 1.0,
-                "y, ly",
-                GRID_PT,
-                muted,
-                true,
-                Anchor::Start,
-            ));
+            for (at, name, anchor) in [
+                (x_name, "x, ly", Anchor::End),
+                (y_name, "y, ly", Anchor::Start),
+            ] {
+                items.push(text(at[0], at[1], name, GRID_PT, muted, true, anchor));
+            }
             return;
         }
         // The reference plane z = cz over the stars' x, y extent.
@@ -1232,20 +1205,10 @@ impl Ctx<'_> {
         if nx > 400 || ny > 400 {
             return;
         }
-        let put_text = |p: [f64; 3], s: String, anchor: Anchor, items: &mut Vec<Item>| {
+        let mut put_text = |p: [f64; 3], s: String, anchor: Anchor, items: &mut Vec<Item>| {
             if let Some(uv) = self.proj.project(p) {
                 let at = frame.to_page(uv);
-                if rect.inflate(-1.0).contains_point(at) {
-                    items.push(text(
-                        at[0],
-                        at[1] + em * 1.1,
-                        &s,
-                        GRID_PT,
-                        muted,
-                        false,
-                        anchor,
-                    ));
-                }
+                texts.put([at[0], at[1] + em * 1.1], &s, anchor, muted, items);
             }
         };
         for i in 0..=nx {
@@ -1408,5 +1371,53 @@ impl Ctx<'_> {
             false,
             Anchor::Start,
         ));
+    }
+}
+
+/// The grid's texts placed on one sheet: each lies inside the map frame,
+/// clear of every earlier one, or is left out.
+struct GridTexts {
+    inside: Rect,
+    boxes: Vec<Rect>,
+}
+
+impl GridTexts {
+    /// Room between two grid texts and between a text and the frame, mm.
+    const GAP_MM: f32 = 0.3;
+
+    fn new(map_rect: Rect) -> GridTexts {
+        GridTexts {
+            inside: map_rect.inflate(-Self::GAP_MM),
+            boxes: Vec::new(),
+        }
+    }
+
+    /// The box of `s` at grid size with its baseline at `at`: from 0.8 em
+    /// above the baseline to 0.2 em below it.
+    fn text_box(at: [f32; 2], s: &str, bold: bool, anchor: Anchor) -> Rect {
+        let w = text_width_mm(s, GRID_PT, bold);
+        let h = GRID_PT * MM_PER_PT;
+        let x = match anchor {
+            Anchor::Start => at[0],
+            Anchor::Middle => at[0] - w / 2.0,
+            Anchor::End => at[0] - w,
+        };
+        Rect::new(x, at[1] - 0.8 * h, w, h)
+    }
+
+    /// Keeps room for a text drawn later.
+    fn reserve(&mut self, at: [f32; 2], s: &str, bold: bool, anchor: Anchor) {
+        self.boxes.push(Self::text_box(at, s, bold, anchor));
+    }
+
+    /// Draws `s` (regular weight) at `at` if it fits.
+    fn put(&mut self, at: [f32; 2], s: &str, anchor: Anchor, colour: Rgba, items: &mut Vec<Item>) {
+        let b = Self::text_box(at, s, false, anchor);
+        let padded = b.inflate(Self::GAP_MM);
+        if !self.inside.contains(&b) || self.boxes.iter().any(|o| o.overlaps(&padded)) {
+            return;
+        }
+        self.boxes.push(b);
+        items.push(text(at[0], at[1], s, GRID_PT, colour, false, anchor));
     }
 }

@@ -381,62 +381,117 @@ fn the_map_columns_are_all_a_sheet_needs() {
     std::fs::remove_dir_all(&dir).ok();
 }
 
-#[test]
-fn grid_numbers_keep_clear_of_the_axis_names() {
+/// The grid's texts (tick numbers and axis names) of a sheet with their
+/// boxes, from 0.8 em above the baseline to 0.2 em below it.
+fn grid_text_boxes(scene: &Scene) -> Vec<(String, Rect)> {
     use starloom::render::scene::Anchor;
     let grid_pt = starloom::map::style::GRID_PT;
+    let is_number = |t: &str| t.trim().parse::<f64>().is_ok();
+    scene
+        .items
+        .iter()
+        .filter_map(|i| match i {
+            Item::Text {
+                position_mm,
+                text,
+                size_pt,
+                anchor,
+                bold,
+                ..
+            } if *size_pt == grid_pt
+                && (is_number(text)
+                    || text.ends_with(", ly")
+                    || ((text.starts_with("x ") || text.starts_with("y "))
+                        && is_number(&text[2..]))) =>
+            {
+                let w = starloom::render::text::text_width_mm(text, *size_pt, *bold);
+                let h = size_pt * 25.4 / 72.0;
+                let x = match anchor {
+                    Anchor::Start => position_mm[0],
+                    Anchor::Middle => position_mm[0] - w / 2.0,
+                    Anchor::End => position_mm[0] - w,
+                };
+                Some((text.clone(), Rect::new(x, position_mm[1] - 0.8 * h, w, h)))
+            }
+            _ => None,
+        })
+        .collect()
+}
+
+/// The map frame of a sheet: its largest closed four-cornered line.
+fn map_frame(scene: &Scene) -> Rect {
+    scene
+        .items
+        .iter()
+        .filter_map(|i| match i {
+            Item::Line {
+                points_mm,
+                closed: true,
+                ..
+            } if points_mm.len() == 4 => {
+                let xs = points_mm.iter().map(|p| p[0]);
+                let ys = points_mm.iter().map(|p| p[1]);
+                let (x0, x1) = (
+                    xs.clone().fold(f32::MAX, f32::min),
+                    xs.fold(f32::MIN, f32::max),
+                );
+                let (y0, y1) = (
+                    ys.clone().fold(f32::MAX, f32::min),
+                    ys.fold(f32::MIN, f32::max),
+                );
+                Some(Rect { x0, y0, x1, y1 })
+            }
+            _ => None,
+        })
+        .max_by(|a, b| (a.width() * a.height()).total_cmp(&(b.width() * b.height())))
+        .expect("a framed sheet")
+}
+
+#[test]
+fn grid_texts_keep_clear_of_each_other_and_the_frame() {
     let mut checked = 0;
-    // Scales and centres that put a grid line at every distance from the
-    // map's right and bottom edges.
-    for mm_per_ly in [0.9, 1.0, 1.7, 2.0, 2.6] {
-        for k in 0..24 {
-            let shift = f64::from(k) * 0.73;
-            let opts = MapOptions {
-                centre_ly: Some([shift, -shift, 0.0]),
-                mm_per_ly: Some(mm_per_ly),
-                ..MapOptions::default()
-            };
-            let s = build_sheets(&known(), &opts, &Overlay::default()).unwrap();
-            let boxes: Vec<(String, Rect)> = s.sheets[0]
-                .scene
-                .items
-                .iter()
-                .filter_map(|i| match i {
-                    Item::Text {
-                        position_mm,
-                        text,
-                        size_pt,
-                        anchor,
-                        bold,
-                        ..
-                    } if *size_pt == grid_pt
-                        && (text.parse::<f64>().is_ok() || text.ends_with(", ly")) =>
-                    {
-                        let w = starloom::render::text::text_width_mm(text, *size_pt, *bold);
-                        let h = size_pt * 25.4 / 72.0;
-                        let x = match anchor {
-                            Anchor::Start => position_mm[0],
-                            Anchor::Middle => position_mm[0] - w / 2.0,
-                            Anchor::End => position_mm[0] - w,
-                        };
-                        Some((text.clone(), Rect::new(x, position_mm[1] - 0.8 * h, w, h)))
-                    }
-                    _ => None,
-                })
-                .collect();
-            let names: Vec<&(String, Rect)> =
-                boxes.iter().filter(|(t, _)| t.ends_with(", ly")).collect();
-            assert_eq!(names.len(), 2, "both axis names are drawn");
-            for (t, b) in boxes.iter().filter(|(t, _)| !t.ends_with(", ly")) {
-                for (n, nb) in &names {
-                    assert!(
-                        !b.overlaps(nb),
-                        "grid number {t} {b:?} overlaps {n} {nb:?} at {mm_per_ly} mm/ly, shift {shift}"
-                    );
+    let views = [
+        ViewSpec::Top,
+        ViewSpec::Oblique { tilt_deg: 35.0 },
+        ViewSpec::Oblique { tilt_deg: 70.0 },
+        ViewSpec::Perspective {
+            eye_ly: None,
+            look_ly: None,
+        },
+    ];
+    for view in views {
+        // Scales and centres that put a grid line at every distance from
+        // the map's edges and corners.
+        for mm_per_ly in [0.9, 1.0, 1.7, 2.0, 2.6] {
+            for k in 0..24 {
+                let shift = f64::from(k) * 0.73;
+                let opts = MapOptions {
+                    centre_ly: Some([shift, -shift, 0.0]),
+                    mm_per_ly: Some(mm_per_ly),
+                    view,
+                    ..MapOptions::default()
+                };
+                let s = build_sheets(&known(), &opts, &Overlay::default()).unwrap();
+                let scene = &s.sheets[0].scene;
+                let frame = map_frame(scene);
+                let boxes = grid_text_boxes(scene);
+                let names = boxes.iter().filter(|(t, _)| t.ends_with(", ly")).count();
+                if matches!(view, ViewSpec::Top) {
+                    assert_eq!(names, 2, "both axis names are drawn");
                 }
-                checked += 1;
+                let at = format!("{view:?}, {mm_per_ly} mm/ly, shift {shift}");
+                for (i, (t, b)) in boxes.iter().enumerate() {
+                    assert!(
+                        frame.contains(b),
+                        "{t:?} {b:?} crosses the frame {frame:?}: {at}"
+                    );
+                    for (u, c) in &boxes[..i] {
+                        assert!(!b.overlaps(c), "{t:?} {b:?} overlaps {u:?} {c:?}: {at}");
+                    }
+                    checked += 1;
+                }
             }
         }
     }
-    assert!(checked > 500, "grid numbers checked: {checked}");
+    assert!(checked > 2000, "grid texts checked: {checked}");
 }
