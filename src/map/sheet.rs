@@ -596,7 +596,7 @@ impl Ctx<'_> {
             };
             let crowd = crowding(self.projected.len(), extent[0] * extent[1]);
             let mut items = Vec::new();
-            self.draw_map(&frame, crowd, &mut items);
+            self.draw_map(&frame, crowd, &[], &mut items);
             if self.has_panel() {
                 let cols = self.blocks(mm_per_ly, crowd, None);
                 self.place_panel(cols, layout.panel, layout.panel_on_right, &mut items);
@@ -652,8 +652,12 @@ impl Ctx<'_> {
             extent[0] * extent[1] * (idx_scale / mm_per_ly).powi(2),
         );
         let mut items = Vec::new();
-        self.draw_map(&idx_frame, idx_crowd, &mut items);
-        self.draw_tile_index(&idx_frame, &tiling, mm_per_ly, &mut items);
+        // Star labels keep clear of the tile names, which are what the
+        // index is for.
+        let names = self.tile_names(&idx_frame, &tiling, mm_per_ly);
+        let name_boxes: Vec<Rect> = names.iter().map(|n| n.bounds.inflate(0.8)).collect();
+        self.draw_map(&idx_frame, idx_crowd, &name_boxes, &mut items);
+        self.draw_tile_index(&names, &mut items);
         if self.has_panel() {
             let cols = self.blocks(
                 idx_scale,
@@ -670,7 +674,7 @@ impl Ctx<'_> {
             for col in 0..tiling.cols {
                 let frame = tiling.frame(row, col, tile_rect, mm_per_ly);
                 let mut items = Vec::new();
-                self.draw_map(&frame, crowd, &mut items);
+                self.draw_map(&frame, crowd, &[], &mut items);
                 self.draw_assembly_marks(&frame, &tiling, row, col, &mut items);
                 sheets.push(MapSheet {
                     role: SheetRole::Tile {
@@ -701,7 +705,9 @@ impl Ctx<'_> {
     }
 
     /// Every map layer inside `frame.map_rect`.
-    fn draw_map(&self, frame: &Frame, crowd: f32, items: &mut Vec<Item>) {
+    /// Grid, links, stars and labels of one map area; no star label
+    /// covers any of `keep_clear`.
+    fn draw_map(&self, frame: &Frame, crowd: f32, keep_clear: &[Rect], items: &mut Vec<Item>) {
         let layers = &self.opts.layers;
         let rect = frame.map_rect;
         if layers.grid {
@@ -728,7 +734,7 @@ impl Ctx<'_> {
             })
             .collect();
         let labelled = if layers.labels {
-            self.place_labels(&vis, rect)
+            self.place_labels(&vis, rect, keep_clear)
         } else {
             Vec::new()
         };
@@ -890,7 +896,7 @@ impl Ctx<'_> {
     }
 
     /// The labels of this sheet: which stars, and their boxes.
-    fn place_labels(&self, vis: &[Vis], rect: Rect) -> Vec<(Vis, Rect)> {
+    fn place_labels(&self, vis: &[Vis], rect: Rect, keep_clear: &[Rect]) -> Vec<(Vis, Rect)> {
         let cat = self.cat;
         let mode = self.opts.labels;
         if mode == LabelMode::None || vis.is_empty() {
@@ -994,7 +1000,7 @@ impl Ctx<'_> {
                 }
             })
             .collect();
-        place_labels_insisting(&requests, insist, &[], rect.inflate(-0.5), budget)
+        place_labels_insisting(&requests, insist, keep_clear, rect.inflate(-0.5), budget)
             .into_iter()
             .map(|p| (vis[order[p.request]], p.rect))
             .collect()
@@ -1233,42 +1239,59 @@ impl Ctx<'_> {
         }
     }
 
-    fn draw_tile_index(
-        &self,
-        frame: &Frame,
-        tiling: &Tiling,
-        poster_scale: f64,
-        items: &mut Vec<Item>,
-    ) {
+    /// Where the index sheet names each tile: centred in the tile's outline
+    /// at a size that fits it.
+    fn tile_names(&self, frame: &Frame, tiling: &Tiling, poster_scale: f64) -> Vec<TileName> {
         let k = (frame.mm_per_ly / poster_scale) as f32;
         let left = frame.origin_mm[0] as f32 - tiling.span_mm[0] * k / 2.0;
         let top = frame.origin_mm[1] as f32 - tiling.span_mm[1] * k / 2.0;
-        let stroke = Palette::stroke(self.pal.tile, 0.35);
+        let mut names = Vec::with_capacity(tiling.rows * tiling.cols);
         for row in 0..tiling.rows {
             for col in 0..tiling.cols {
                 let w = tiling.window(row, col);
-                let r = Rect {
+                let outline = Rect {
                     x0: left + w.x0 * k,
                     y0: top + w.y0 * k,
                     x1: left + w.x1 * k,
                     y1: top + w.y1 * k,
                 };
-                items.push(Item::Line {
-                    points_mm: vec![[r.x0, r.y0], [r.x1, r.y0], [r.x1, r.y1], [r.x0, r.y1]],
-                    closed: true,
-                    stroke,
+                let size_pt = (outline.height() * 0.25 / MM_PER_PT).clamp(6.0, 16.0);
+                let text = format!("r{}c{}", row + 1, col + 1);
+                let em = size_pt * MM_PER_PT;
+                let centre_x = (outline.x0 + outline.x1) / 2.0;
+                let baseline = [centre_x, (outline.y0 + outline.y1) / 2.0 + em * 0.35];
+                let width = text_width_mm(&text, size_pt, true);
+                names.push(TileName {
+                    outline,
+                    bounds: Rect::new(centre_x - width / 2.0, baseline[1] - 0.8 * em, width, em),
+                    baseline,
+                    size_pt,
+                    text,
                 });
-                let size = (r.height() * 0.25 / MM_PER_PT).clamp(6.0, 16.0);
-                items.push(text(
-                    (r.x0 + r.x1) / 2.0,
-                    (r.y0 + r.y1) / 2.0 + size * MM_PER_PT * 0.35,
-                    &format!("r{}c{}", row + 1, col + 1),
-                    size,
-                    self.pal.tile,
-                    true,
-                    Anchor::Middle,
-                ));
             }
+        }
+        names
+    }
+
+    /// The index sheet's tile outlines and names.
+    fn draw_tile_index(&self, names: &[TileName], items: &mut Vec<Item>) {
+        let stroke = Palette::stroke(self.pal.tile, 0.35);
+        for n in names {
+            let r = n.outline;
+            items.push(Item::Line {
+                points_mm: vec![[r.x0, r.y0], [r.x1, r.y0], [r.x1, r.y1], [r.x0, r.y1]],
+                closed: true,
+                stroke,
+            });
+            items.push(text(
+                n.baseline[0],
+                n.baseline[1],
+                &n.text,
+                n.size_pt,
+                self.pal.tile,
+                true,
+                Anchor::Middle,
+            ));
         }
     }
 
@@ -1372,6 +1395,16 @@ impl Ctx<'_> {
             Anchor::Start,
         ));
     }
+}
+
+/// One tile's outline and name on the index sheet.
+struct TileName {
+    outline: Rect,
+    /// The name's box, mm.
+    bounds: Rect,
+    baseline: [f32; 2],
+    size_pt: f32,
+    text: String,
 }
 
 /// The grid's texts placed on one sheet: each lies inside the map frame,

@@ -495,3 +495,77 @@ fn grid_texts_keep_clear_of_each_other_and_the_frame() {
     }
     assert!(checked > 2000, "grid texts checked: {checked}");
 }
+
+/// On a poster's index sheet no star label covers a tile's name.
+#[test]
+fn index_labels_keep_clear_of_the_tile_names() {
+    use starloom::render::scene::Anchor;
+    let mut c = Catalogue::default();
+    // A crowded cluster that fills every tile's centre.
+    for i in 0..600u64 {
+        let a = i as f64 * 2.399_963; // golden angle, radians
+        let r = (i as f64).sqrt() * 1.5;
+        c.push(row(
+            i + 1,
+            &format!("Long-named system {i}"),
+            [r * a.cos(), r * a.sin(), 0.0],
+            0.5 + (i % 7) as f64 * 0.3,
+            KindChoice::Auto,
+        ));
+    }
+    let opts = MapOptions {
+        labels: starloom::map::LabelMode::All,
+        mm_per_ly: Some(8.0),
+        layers: Layers {
+            stalks: false,
+            ..Layers::default()
+        },
+        ..bare()
+    };
+    let s = build_sheets(&c, &opts, &Overlay::default()).unwrap();
+    assert!(s.tiles[0] * s.tiles[1] >= 4, "tiles: {:?}", s.tiles);
+    let index = s
+        .sheets
+        .iter()
+        .find(|x| x.role == SheetRole::Index)
+        .expect("an index sheet");
+    let is_tile_name = |t: &str| {
+        t.strip_prefix('r')
+            .and_then(|t| t.split_once('c'))
+            .is_some_and(|(r, c)| r.parse::<u32>().is_ok() && c.parse::<u32>().is_ok())
+    };
+    let mut names = Vec::new();
+    let mut labels = Vec::new();
+    for item in &index.scene.items {
+        if let Item::Text {
+            position_mm,
+            text,
+            size_pt,
+            anchor,
+            bold,
+            ..
+        } = item
+        {
+            let w = starloom::render::text::text_width_mm(text, *size_pt, *bold);
+            let h = size_pt * 25.4 / 72.0;
+            let x = match anchor {
+                Anchor::Start => position_mm[0],
+                Anchor::Middle => position_mm[0] - w / 2.0,
+                Anchor::End => position_mm[0] - w,
+            };
+            let b = Rect::new(x, position_mm[1] - 0.8 * h, w, h);
+            if is_tile_name(text) {
+                names.push((text.clone(), b));
+            } else if text.starts_with("Long-named") {
+                labels.push((text.clone(), b));
+            }
+        }
+    }
+    assert_eq!(names.len(), s.tiles[0] * s.tiles[1], "every tile is named");
+    assert!(labels.len() > 20, "some labels placed: {}", labels.len());
+    for (n, nb) in &names {
+        for (l, lb) in &labels {
+            assert!(!nb.overlaps(lb), "{l:?} {lb:?} covers tile name {n} {nb:?}");
+        }
+    }
+}
