@@ -331,8 +331,17 @@ pub fn build_sheets(cat: &Catalogue, opts: &MapOptions, overlay: &Overlay) -> Re
 
 fn format_height(dz: f64) -> String {
     let digits = if dz.abs() < 100.0 { 1 } else { 0 };
-    let sign = if dz >= 0.0 { "+" } else { "-" };
-    format!("{sign}{:.digits$} ly", dz.abs())
+    let size = format!("{:.digits$}", dz.abs());
+    // A height that rounds to nothing is in the plane: no sign, so never
+    // a "-0.0".
+    let sign = if size.bytes().all(|b| b == b'0' || b == b'.') {
+        ""
+    } else if dz > 0.0 {
+        "+"
+    } else {
+        "-"
+    };
+    format!("{sign}{size} ly")
 }
 
 /// A visible star on one sheet.
@@ -1452,5 +1461,22 @@ impl GridTexts {
         }
         self.boxes.push(b);
         items.push(text(at[0], at[1], s, GRID_PT, colour, false, anchor));
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::format_height;
+
+    #[test]
+    fn heights_are_signed_except_in_the_plane() {
+        assert_eq!(format_height(2.04), "+2.0 ly");
+        assert_eq!(format_height(-0.06), "-0.1 ly");
+        assert_eq!(format_height(-0.04), "0.0 ly");
+        assert_eq!(format_height(0.0), "0.0 ly");
+        assert_eq!(format_height(-0.0), "0.0 ly");
+        assert_eq!(format_height(150.4), "+150 ly");
+        assert_eq!(format_height(-99.96), "-100.0 ly");
+        assert_eq!(format_height(-0.4e-9), "0.0 ly");
     }
 }
