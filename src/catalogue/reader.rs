@@ -530,6 +530,40 @@ fn with_exponent_at(b: &[u8], start: usize, to: usize) -> Option<f64> {
     }
 }
 
+/// For [`decimal_at`]: the field of `n` bytes that ends at `to` in `b`,
+/// read as the top `n` bytes of a little-endian word of type `$t` (its
+/// last byte the top one) with the bytes below it set to '0', and its
+/// point squeezed out (a '0' shifted in at the bottom): that word of
+/// would-be digits and the count of digits after the point. The
+/// enclosing function returns `None` when `b` holds too few bytes before
+/// `to` for a whole word.
+macro_rules! point_squeezed {
+    ($t:ty, $b:expr, $to:expr, $n:expr) => {{
+        const BYTES: usize = std::mem::size_of::<$t>();
+        const ZEROS: $t = <$t>::from_ne_bytes([b'0'; BYTES]);
+        const DOTS: $t = <$t>::from_ne_bytes([b'.'; BYTES]);
+        const ONES: $t = <$t>::from_ne_bytes([1; BYTES]);
+        const HIGHS: $t = <$t>::from_ne_bytes([0x80; BYTES]);
+        let window: [u8; BYTES] = $b.get($to.checked_sub(BYTES)?..$to)?.try_into().ok()?;
+        let field = <$t>::MAX << (8 * (BYTES - $n));
+        let w = (<$t>::from_le_bytes(window) & field) | (ZEROS & !field);
+        let x = w ^ DOTS;
+        let dots = x.wrapping_sub(ONES) & !x & HIGHS;
+        if dots == 0 {
+            (w, 0)
+        } else {
+            // The lowest marked byte is a point for certain (a false mark
+            // can only sit above a true one); a second point fails the
+            // digit test.
+            let q = dots.trailing_zeros() / 8;
+            let below: $t = (1 << (8 * q)) - 1;
+            let above = <$t>::MAX.checked_shl(8 * q + 8).unwrap_or(0);
+            let squeezed = (w & above) | ((w & below) << 8) | <$t>::from(b'0');
+            (squeezed, BYTES - 1 - q as usize)
+        }
+    }};
+}
+
 /// The digits of `b[start..to]`, a decimal `digits[.digits]` with no sign
 /// of one to sixteen bytes, as a whole number and the count of digits
 /// after the point; `None` for anything else (no digit, a second point,
@@ -543,52 +577,14 @@ fn with_exponent_at(b: &[u8], start: usize, to: usize) -> Option<f64> {
 #[inline(always)]
 fn decimal_at(b: &[u8], start: usize, to: usize) -> Option<(u64, usize)> {
     let n = to.checked_sub(start)?;
-    if n == 0 || n > 16 {
+    if n == 0 || n > 16 || (n == 1 && b[start] == b'.') {
         return None;
     }
     if n <= 8 {
-        const ZEROS: u64 = u64::from_ne_bytes([b'0'; 8]);
-        const DOTS: u64 = u64::from_ne_bytes([b'.'; 8]);
-        const ONES: u64 = u64::from_ne_bytes([1; 8]);
-        const HIGHS: u64 = u64::from_ne_bytes([0x80; 8]);
-        let window: [u8; 8] = b.get(to.checked_sub(8)?..to)?.try_into().ok()?;
-        // Little-endian: the field is the top `n` bytes, its last byte the top one.
-        let field = !0u64 << (8 * (8 - n));
-        let w = (u64::from_le_bytes(window) & field) | (ZEROS & !field);
-        let x = w ^ DOTS;
-        let dots = x.wrapping_sub(ONES) & !x & HIGHS;
-        if dots == 0 {
-            return Some((eight_digits(w)?, 0));
-        }
-        // The lowest marked byte is a point for certain (a false mark can
-        // only sit above a true one); a second point fails the digit test.
-        let q = dots.trailing_zeros() / 8;
-        let below = (1u64 << (8 * q)) - 1;
-        let above = (!0u64).checked_shl(8 * q + 8).unwrap_or(0);
-        let squeezed = (w & above) | ((w & below) << 8) | u64::from(b'0');
-        if n == 1 {
-            return None;
-        }
-        return Some((eight_digits(squeezed)?, 7 - q as usize));
+        let (digits, decimals) = point_squeezed!(u64, b, to, n);
+        return Some((eight_digits(digits)?, decimals));
     }
-    const ZEROS: u128 = u128::from_ne_bytes([b'0'; 16]);
-    const DOTS: u128 = u128::from_ne_bytes([b'.'; 16]);
-    const ONES: u128 = u128::from_ne_bytes([1; 16]);
-    const HIGHS: u128 = u128::from_ne_bytes([0x80; 16]);
-    let window: [u8; 16] = b.get(to.checked_sub(16)?..to)?.try_into().ok()?;
-    let field = !0u128 << (8 * (16 - n));
-    let w = (u128::from_le_bytes(window) & field) | (ZEROS & !field);
-    let x = w ^ DOTS;
-    let dots = x.wrapping_sub(ONES) & !x & HIGHS;
-    let (digits, decimals) = if dots == 0 {
-        (w, 0)
-    } else {
-        let q = dots.trailing_zeros() / 8;
-        let below = (1u128 << (8 * q)) - 1;
-        let above = (!0u128).checked_shl(8 * q + 8).unwrap_or(0);
-        let squeezed = (w & above) | ((w & below) << 8) | u128::from(b'0');
-        (squeezed, 15 - q as usize)
-    };
+    let (digits, decimals) = point_squeezed!(u128, b, to, n);
     let high = eight_digits(digits as u64)?;
     let low = eight_digits((digits >> 64) as u64)?;
     Some((high * 100_000_000 + low, decimals))
