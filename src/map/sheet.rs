@@ -24,6 +24,7 @@ use crate::map::style::{
 };
 use crate::map::view::{Projector, ViewSpec};
 use crate::render::overlay::Overlay;
+use crate::render::raster::anchor_shift_em;
 use crate::render::scene::{Anchor, Item, Rgba, Scene, Shape, Stroke};
 use crate::render::text::text_width_mm;
 use rayon::prelude::*;
@@ -1266,13 +1267,13 @@ impl Ctx<'_> {
                 };
                 let size_pt = (outline.height() * 0.25 / MM_PER_PT).clamp(6.0, 16.0);
                 let text = format!("r{}c{}", row + 1, col + 1);
-                let em = size_pt * MM_PER_PT;
-                let centre_x = (outline.x0 + outline.x1) / 2.0;
-                let baseline = [centre_x, (outline.y0 + outline.y1) / 2.0 + em * 0.35];
-                let width = text_width_mm(&text, size_pt, true);
+                let baseline = [
+                    (outline.x0 + outline.x1) / 2.0,
+                    (outline.y0 + outline.y1) / 2.0 + size_pt * MM_PER_PT * 0.35,
+                ];
                 names.push(TileName {
                     outline,
-                    bounds: Rect::new(centre_x - width / 2.0, baseline[1] - 0.8 * em, width, em),
+                    bounds: text_bounds(baseline, &text, size_pt, true, Anchor::Middle),
                     baseline,
                     size_pt,
                     text,
@@ -1406,6 +1407,14 @@ impl Ctx<'_> {
     }
 }
 
+/// The box of a one-line text with its baseline at `at`, mm: from 0.8 em
+/// above the baseline to 0.2 em below it.
+fn text_bounds(at: [f32; 2], s: &str, size_pt: f32, bold: bool, anchor: Anchor) -> Rect {
+    let w = text_width_mm(s, size_pt, bold);
+    let h = size_pt * MM_PER_PT;
+    Rect::new(at[0] + anchor_shift_em(anchor, w), at[1] - 0.8 * h, w, h)
+}
+
 /// One tile's outline and name on the index sheet.
 struct TileName {
     outline: Rect,
@@ -1434,27 +1443,14 @@ impl GridTexts {
         }
     }
 
-    /// The box of `s` at grid size with its baseline at `at`: from 0.8 em
-    /// above the baseline to 0.2 em below it.
-    fn text_box(at: [f32; 2], s: &str, bold: bool, anchor: Anchor) -> Rect {
-        let w = text_width_mm(s, GRID_PT, bold);
-        let h = GRID_PT * MM_PER_PT;
-        let x = match anchor {
-            Anchor::Start => at[0],
-            Anchor::Middle => at[0] - w / 2.0,
-            Anchor::End => at[0] - w,
-        };
-        Rect::new(x, at[1] - 0.8 * h, w, h)
-    }
-
     /// Keeps room for a text drawn later.
     fn reserve(&mut self, at: [f32; 2], s: &str, bold: bool, anchor: Anchor) {
-        self.boxes.push(Self::text_box(at, s, bold, anchor));
+        self.boxes.push(text_bounds(at, s, GRID_PT, bold, anchor));
     }
 
     /// Draws `s` (regular weight) at `at` if it fits.
     fn put(&mut self, at: [f32; 2], s: &str, anchor: Anchor, colour: Rgba, items: &mut Vec<Item>) {
-        let b = Self::text_box(at, s, false, anchor);
+        let b = text_bounds(at, s, GRID_PT, false, anchor);
         let padded = b.inflate(Self::GAP_MM);
         if !self.inside.contains(&b) || self.boxes.iter().any(|o| o.overlaps(&padded)) {
             return;

@@ -778,7 +778,8 @@ struct TextSpec<'t> {
     rotation_deg: f32,
 }
 
-/// Offset of the line start from the anchor, ems.
+/// Offset of the line start from the anchor, in the unit of `width_em`
+/// (ems in the renderers; the map sheet uses it in mm for text boxes).
 pub(crate) fn anchor_shift_em(anchor: Anchor, width_em: f32) -> f32 {
     match anchor {
         Anchor::Start => 0.0,

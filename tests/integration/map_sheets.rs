@@ -52,6 +52,49 @@ fn known() -> Catalogue {
     c
 }
 
+/// `n` stars named "Long-named system i" in a tight disc (a golden-angle
+/// spiral in the plane), of masses 0.5 to 2.3 Msun.
+fn long_named_cluster(n: u64) -> Catalogue {
+    let mut c = Catalogue::default();
+    for i in 0..n {
+        let a = i as f64 * 2.399_963; // golden angle, radians
+        let r = (i as f64).sqrt() * 1.5;
+        c.push(row(
+            i + 1,
+            &format!("Long-named system {i}"),
+            [r * a.cos(), r * a.sin(), 0.0],
+            0.5 + (i % 7) as f64 * 0.3,
+            KindChoice::Auto,
+        ));
+    }
+    c
+}
+
+/// A text item's text and box, from 0.8 em above the baseline to 0.2 em
+/// below it; `None` for other items.
+fn text_box(item: &Item) -> Option<(&str, Rect)> {
+    use starloom::render::scene::Anchor;
+    let Item::Text {
+        position_mm,
+        text,
+        size_pt,
+        anchor,
+        bold,
+        ..
+    } = item
+    else {
+        return None;
+    };
+    let w = starloom::render::text::text_width_mm(text, *size_pt, *bold);
+    let h = size_pt * 25.4 / 72.0;
+    let x = match anchor {
+        Anchor::Start => position_mm[0],
+        Anchor::Middle => position_mm[0] - w / 2.0,
+        Anchor::End => position_mm[0] - w,
+    };
+    Some((text, Rect::new(x, position_mm[1] - 0.8 * h, w, h)))
+}
+
 /// Centres of every drawn star (batched discs and single markers), mm.
 fn star_centres(scene: &Scene) -> Vec<[f32; 2]> {
     let mut out = Vec::new();
@@ -234,19 +277,8 @@ fn posters_tile_with_overlap_and_an_index() {
 
 #[test]
 fn labels_never_overlap_on_a_crowded_sheet() {
-    let mut c = Catalogue::default();
     // A tight cluster of 400 stars with long names.
-    for i in 0..400u64 {
-        let a = i as f64 * 2.399_963; // golden angle, radians
-        let r = (i as f64).sqrt() * 1.5;
-        c.push(row(
-            i + 1,
-            &format!("Long-named system {i}"),
-            [r * a.cos(), r * a.sin(), 0.0],
-            0.5 + (i % 7) as f64 * 0.3,
-            KindChoice::Auto,
-        ));
-    }
+    let c = long_named_cluster(400);
     let opts = MapOptions {
         labels: starloom::map::LabelMode::All,
         layers: Layers {
@@ -260,19 +292,9 @@ fn labels_never_overlap_on_a_crowded_sheet() {
         .scene
         .items
         .iter()
-        .filter_map(|i| match i {
-            Item::Text {
-                position_mm,
-                text,
-                size_pt,
-                ..
-            } if text.starts_with("Long-named") => {
-                let w = starloom::render::text::text_width_mm(text, *size_pt, false);
-                let h = size_pt * 25.4 / 72.0;
-                Some(Rect::new(position_mm[0], position_mm[1] - 0.8 * h, w, h))
-            }
-            _ => None,
-        })
+        .filter_map(text_box)
+        .filter(|(text, _)| text.starts_with("Long-named"))
+        .map(|(_, b)| b)
         .collect();
     assert!(boxes.len() > 20, "some labels placed: {}", boxes.len());
     assert!(boxes.len() < 400, "a crowded sheet drops labels");
@@ -384,37 +406,19 @@ fn the_map_columns_are_all_a_sheet_needs() {
 /// The grid's texts (tick numbers and axis names) of a sheet with their
 /// boxes, from 0.8 em above the baseline to 0.2 em below it.
 fn grid_text_boxes(scene: &Scene) -> Vec<(String, Rect)> {
-    use starloom::render::scene::Anchor;
     let grid_pt = starloom::map::style::GRID_PT;
     let is_number = |t: &str| t.trim().parse::<f64>().is_ok();
     scene
         .items
         .iter()
-        .filter_map(|i| match i {
-            Item::Text {
-                position_mm,
-                text,
-                size_pt,
-                anchor,
-                bold,
-                ..
-            } if *size_pt == grid_pt
-                && (is_number(text)
-                    || text.ends_with(", ly")
-                    || ((text.starts_with("x ") || text.starts_with("y "))
-                        && is_number(&text[2..]))) =>
-            {
-                let w = starloom::render::text::text_width_mm(text, *size_pt, *bold);
-                let h = size_pt * 25.4 / 72.0;
-                let x = match anchor {
-                    Anchor::Start => position_mm[0],
-                    Anchor::Middle => position_mm[0] - w / 2.0,
-                    Anchor::End => position_mm[0] - w,
-                };
-                Some((text.clone(), Rect::new(x, position_mm[1] - 0.8 * h, w, h)))
-            }
-            _ => None,
+        .filter(|i| matches!(i, Item::Text { size_pt, .. } if *size_pt == grid_pt))
+        .filter_map(text_box)
+        .filter(|(text, _)| {
+            is_number(text)
+                || text.ends_with(", ly")
+                || ((text.starts_with("x ") || text.starts_with("y ")) && is_number(&text[2..]))
         })
+        .map(|(text, b)| (text.to_string(), b))
         .collect()
 }
 
@@ -499,20 +503,8 @@ fn grid_texts_keep_clear_of_each_other_and_the_frame() {
 /// On a poster's index sheet no star label covers a tile's name.
 #[test]
 fn index_labels_keep_clear_of_the_tile_names() {
-    use starloom::render::scene::Anchor;
-    let mut c = Catalogue::default();
     // A crowded cluster that fills every tile's centre.
-    for i in 0..600u64 {
-        let a = i as f64 * 2.399_963; // golden angle, radians
-        let r = (i as f64).sqrt() * 1.5;
-        c.push(row(
-            i + 1,
-            &format!("Long-named system {i}"),
-            [r * a.cos(), r * a.sin(), 0.0],
-            0.5 + (i % 7) as f64 * 0.3,
-            KindChoice::Auto,
-        ));
-    }
+    let c = long_named_cluster(600);
     let opts = MapOptions {
         labels: starloom::map::LabelMode::All,
         mm_per_ly: Some(8.0),
@@ -536,29 +528,11 @@ fn index_labels_keep_clear_of_the_tile_names() {
     };
     let mut names = Vec::new();
     let mut labels = Vec::new();
-    for item in &index.scene.items {
-        if let Item::Text {
-            position_mm,
-            text,
-            size_pt,
-            anchor,
-            bold,
-            ..
-        } = item
-        {
-            let w = starloom::render::text::text_width_mm(text, *size_pt, *bold);
-            let h = size_pt * 25.4 / 72.0;
-            let x = match anchor {
-                Anchor::Start => position_mm[0],
-                Anchor::Middle => position_mm[0] - w / 2.0,
-                Anchor::End => position_mm[0] - w,
-            };
-            let b = Rect::new(x, position_mm[1] - 0.8 * h, w, h);
-            if is_tile_name(text) {
-                names.push((text.clone(), b));
-            } else if text.starts_with("Long-named") {
-                labels.push((text.clone(), b));
-            }
+    for (text, b) in index.scene.items.iter().filter_map(text_box) {
+        if is_tile_name(text) {
+            names.push((text.to_string(), b));
+        } else if text.starts_with("Long-named") {
+            labels.push((text.to_string(), b));
         }
     }
     assert_eq!(names.len(), s.tiles[0] * s.tiles[1], "every tile is named");
