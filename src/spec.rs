@@ -295,15 +295,12 @@ impl SectorSpec {
         if h.iter().any(|&h_i| h_i > limit) {
             // The shape alone is too large: name the shape's option, not the centre.
             let (option, value) = match self.shape {
-                Shape::Box { size_ly } => (
-                    "--box",
-                    format!("{},{},{}", size_ly[0], size_ly[1], size_ly[2]),
-                ),
-                Shape::Sphere { radius_ly } => ("--sphere", format!("{radius_ly}")),
+                Shape::Box { size_ly } => ("--box", ly_text(&size_ly)),
+                Shape::Sphere { radius_ly } => ("--sphere", ly_text(&[radius_ly])),
                 Shape::Cylinder {
                     radius_ly,
                     height_ly,
-                } => ("--cylinder", format!("{radius_ly},{height_ly}")),
+                } => ("--cylinder", ly_text(&[radius_ly, height_ly])),
             };
             return Err(Error::invalid(
                 option,
@@ -315,10 +312,7 @@ impl SectorSpec {
             if !c.is_finite() || c.abs() + h_i > limit {
                 return Err(Error::invalid(
                     "--centre",
-                    format!(
-                        "{},{},{}",
-                        self.centre_ly[0], self.centre_ly[1], self.centre_ly[2]
-                    ),
+                    ly_text(&self.centre_ly),
                     format!("the volume must lie within {limit} ly of the origin on every axis"),
                 ));
             }
@@ -364,6 +358,17 @@ impl SectorSpec {
         }
         Ok(())
     }
+}
+
+/// Lengths in light years as an error message shows them: to 0.1 ly,
+/// comma-separated, with the unit (`652312.8 ly`, `978469.1,0,0 ly`), so a
+/// value converted from pc or kpc does not show float noise.
+fn ly_text(values: &[f64]) -> String {
+    let shown: Vec<String> = values
+        .iter()
+        .map(|v| format!("{}", (v * 10.0).round() / 10.0 + 0.0))
+        .collect();
+    format!("{} ly", shown.join(","))
 }
 
 /// Parses a length such as `200`, `200ly`, `60pc`, `1.5kpc`, `2kly` into light years.
@@ -812,6 +817,19 @@ mod tests {
         let d = parse_density("--density", "0.09/pc3").unwrap();
         assert!((d - 0.09 / LY_PER_PC.powi(3)).abs() < 1e-12);
         assert!(parse_density("--density", "0").is_err());
+    }
+
+    #[test]
+    fn too_far_names_the_length_in_ly_without_float_noise() {
+        // 200 kpc, typed as a user would: 652 312.755… ly.
+        let radius_ly = parse_length_ly("--sphere", "200kpc").unwrap();
+        let spec = SectorSpec::new(1, Shape::Sphere { radius_ly }, [0.0; 3]);
+        let text = spec.validate().unwrap_err().to_string();
+        assert!(text.contains("--sphere got '652312.8 ly'"), "{text}");
+        let far = parse_centre("--centre", "300kpc,0,-0").unwrap();
+        let spec = SectorSpec::new(1, Shape::Sphere { radius_ly: 10.0 }, far);
+        let text = spec.validate().unwrap_err().to_string();
+        assert!(text.contains("--centre got '978469.1,0,0 ly'"), "{text}");
     }
 
     #[test]
