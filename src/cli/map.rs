@@ -278,25 +278,33 @@ pub fn run(args: MapArgs) -> anyhow::Result<ExitCode> {
     let [rows, cols] = sheets.tiles;
     if rows * cols > 1 {
         let tiles = format!(
-            "an index sheet and {} tiles ({rows} rows × {cols} columns) at {}",
+            "an index sheet and {} tiles ({} × {}) at {}",
             rows * cols,
+            crate::report::counted(rows as u64, "row", "rows"),
+            crate::report::counted(cols as u64, "column", "columns"),
             map::scale::describe_scale(sheets.mm_per_ly)
         );
         match paths.as_slice() {
             [one] => println!("wrote {}: {tiles}, one page each", one.display()),
-            [first, .., last] => println!(
-                "wrote {tiles}: {} and {} … {}",
+            [first, second, last] => println!(
+                "wrote {tiles}: {}, {} and {}",
                 first.display(),
-                paths[1].display(),
+                second.display(),
                 last.display()
             ),
-            [] => {}
+            [first, second, .., last] => println!(
+                "wrote {tiles}: {} and {} … {}",
+                first.display(),
+                second.display(),
+                last.display()
+            ),
+            [] | [_, _] => {}
         }
     } else {
         println!(
-            "wrote {} ({} systems, {})",
+            "wrote {} ({}, {})",
             paths[0].display(),
-            sheets.systems,
+            crate::report::counted(sheets.systems as u64, "system", "systems"),
             map::scale::describe_scale(sheets.mm_per_ly)
         );
     }

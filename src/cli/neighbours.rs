@@ -68,9 +68,10 @@ pub fn run(args: NeighboursArgs) -> anyhow::Result<ExitCode> {
             })?;
             let rows: usize = table.iter().map(Vec::len).sum();
             eprintln!(
-                "wrote {} ({rows} rows for {} systems)",
+                "wrote {} ({} for {})",
                 out.display(),
-                systems.len()
+                crate::report::counted(rows as u64, "row", "rows"),
+                crate::report::counted(systems.len() as u64, "system", "systems")
             );
         }
         None => {

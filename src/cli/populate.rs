@@ -274,10 +274,11 @@ fn run_real(args: &PopulateArgs, spec: &spec::SectorSpec, side: &Path) -> crate:
         .count();
     let stars = cat.kind.iter().filter(|k| k.is_star()).count();
     println!(
-        "wrote {stars} stars ({real} real, {} generated; {} objects with brown dwarfs, {} systems) to {}",
+        "wrote {} ({real} real, {} generated; {} counting brown dwarfs, {}) to {}",
+        crate::report::counted(stars as u64, "star", "stars"),
         stars - real,
-        cat.len(),
-        cat.system_ranges().len(),
+        crate::report::counted(cat.len() as u64, "object", "objects"),
+        crate::report::counted(cat.system_ranges().len() as u64, "system", "systems"),
         args.out.display()
     );
     Ok(())
@@ -310,10 +311,10 @@ pub fn run(args: PopulateArgs) -> anyhow::Result<ExitCode> {
         spec::to_toml(&spec, shard_pair).as_bytes(),
     )?;
     println!(
-        "wrote {} stars ({} objects with brown dwarfs, {} systems) to {}",
-        report.stars,
-        report.objects,
-        report.systems,
+        "wrote {} ({} counting brown dwarfs, {}) to {}",
+        crate::report::counted(report.stars, "star", "stars"),
+        crate::report::counted(report.objects, "object", "objects"),
+        crate::report::counted(report.systems, "system", "systems"),
         args.out.display()
     );
     println!("spec written to {}", side.display());

@@ -327,13 +327,22 @@ pub fn run(args: RoutesArgs) -> anyhow::Result<ExitCode> {
 }
 
 fn print_summary(s: &crate::routes::NetworkSummary) {
+    use crate::report::counted;
     println!(
-        "jump range {} ly: {} systems, {} links",
-        s.jump_ly, s.systems, s.links
+        "jump range {} ly: {}, {}",
+        s.jump_ly,
+        counted(s.systems, "system", "systems"),
+        counted(s.links, "link", "links")
     );
     println!(
-        "{} regions, the largest with {} systems; {} isolated systems",
-        s.regions, s.largest_region, s.isolated_systems
+        "{}, the largest with {}; {}",
+        counted(s.regions, "region", "regions"),
+        counted(s.largest_region, "system", "systems"),
+        counted(s.isolated_systems, "isolated system", "isolated systems")
     );
-    println!("{} lanes, {:.2} ly in total", s.lanes, s.lanes_ly);
+    println!(
+        "{}, {:.2} ly in total",
+        counted(s.lanes, "lane", "lanes"),
+        s.lanes_ly
+    );
 }

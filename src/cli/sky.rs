@@ -203,10 +203,10 @@ fn print_table(view: &SkyView, w: &mut impl Write) -> std::io::Result<()> {
     let o = &view.observer;
     writeln!(
         w,
-        "The sky from {} (system {}): {} stars brighter than V {}, {} fainter",
+        "The sky from {} (system {}): {} brighter than V {}, {} fainter",
         o.name,
         o.system,
-        view.visible_count,
+        crate::report::counted(view.visible_count as u64, "star", "stars"),
         view.options.limit_mag,
         view.fainter_count()
     )?;

@@ -156,8 +156,11 @@ pub fn summary_text(cat: &Catalogue, s: &Summary) -> String {
     }
     let _ = writeln!(
         out,
-        "{} objects: {} stars, {} brown dwarfs, in {} systems",
-        s.objects, s.stars, s.brown_dwarfs, s.systems
+        "{}: {}, {}, in {}",
+        counted(s.objects, "object", "objects"),
+        counted(s.stars, "star", "stars"),
+        counted(s.brown_dwarfs, "brown dwarf", "brown dwarfs"),
+        counted(s.systems, "system", "systems")
     );
     let _ = writeln!(
         out,
@@ -204,4 +207,27 @@ pub fn summary_text(cat: &Catalogue, s: &Summary) -> String {
         s.nearest_neighbour_poisson_mean_ly
     );
     out
+}
+
+/// `n` and the noun that goes with it: `1 star`, `2 stars`, `0 stars`
+/// (for the messages and reports the program prints).
+pub fn counted(n: impl Into<u64>, one: &str, many: &str) -> String {
+    let n = n.into();
+    format!("{n} {}", if n == 1 { one } else { many })
+}
+
+#[cfg(test)]
+mod counted_tests {
+    use super::counted;
+
+    #[test]
+    fn counts_take_the_singular_only_for_one() {
+        assert_eq!(counted(0u64, "star", "stars"), "0 stars");
+        assert_eq!(counted(1u64, "star", "stars"), "1 star");
+        assert_eq!(counted(2u64, "star", "stars"), "2 stars");
+        assert_eq!(
+            counted(1u32, "brown dwarf", "brown dwarfs"),
+            "1 brown dwarf"
+        );
+    }
 }

@@ -210,6 +210,14 @@ fn maps_are_written_in_every_view_and_tiled_when_large() {
     }
     assert!(!dir.join("big.r1c2.png").exists());
     assert!(!dir.join("big.png").exists());
+    // The message counts one column in the singular and, with only three
+    // files, names them all.
+    let said = crate::util::stdout(&out);
+    assert!(
+        said.contains("an index sheet and 2 tiles (2 rows × 1 column) at ")
+            && said.contains(": big.index.png, big.r1c1.png and big.r2c1.png"),
+        "{said}"
+    );
     // Existing files are kept without --force, and nothing new appears.
     let out = starloom(
         &dir,

@@ -445,3 +445,42 @@ fn sector_absurd_size_is_refused_at_once_with_the_estimate() {
     // Timing is reported, not asserted (tests make no timing claims).
     eprintln!("absurd sphere refused in {elapsed:?}");
 }
+
+#[test]
+fn sector_messages_count_in_the_singular_for_one() {
+    let dir = work_dir("sector_singular");
+    // A 5 ly sphere around (-50, 0, 0) holds one single star for seed 3;
+    // the count below is checked against the file itself.
+    let out = starloom_ok(
+        &dir,
+        &[
+            "populate", "--centre", "-50,0,0", "--sphere", "5", "--seed", "3", "--out", "one.csv",
+        ],
+    );
+    let cat = read_catalogue(&dir.join("one.csv")).unwrap();
+    assert_eq!(cat.len(), 1, "the scene this test needs: one object");
+    assert!(
+        stdout(&out).starts_with("wrote 1 star (1 object counting brown dwarfs, 1 system) to "),
+        "{}",
+        stdout(&out)
+    );
+    let out = starloom_ok(&dir, &["summary", "one.csv"]);
+    assert!(
+        stdout(&out).starts_with("1 object: 1 star, 0 brown dwarfs, in 1 system"),
+        "{}",
+        stdout(&out)
+    );
+    let out = starloom_ok(&dir, &["map", "one.csv", "--out", "one.png"]);
+    assert!(stdout(&out).contains("(1 system, "), "{}", stdout(&out));
+}
+
+#[test]
+fn sector_too_far_shows_the_converted_length_in_ly() {
+    let dir = work_dir("sector_too_far");
+    let out = starloom(
+        &dir,
+        &["populate", "--sphere", "200kpc", "--out", "far.csv"],
+    );
+    assert_user_error(&out, "--sphere got '652312.8 ly'");
+    assert!(!dir.join("far.csv").exists());
+}
