@@ -504,7 +504,10 @@ impl Ctx<'_> {
             "heights from the plane z = {} ly",
             format_number(c[2])
         ));
-        f.push(format!("{} systems shown", self.systems.len()));
+        f.push(format!(
+            "{} shown",
+            crate::report::counted(self.systems.len() as u64, "system", "systems")
+        ));
         if let Some(only) = &o.only {
             f.push(format!(
                 "only {}",

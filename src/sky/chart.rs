@@ -439,9 +439,9 @@ pub fn sky_chart(view: &SkyView, opts: &ChartOptions) -> Scene {
         ));
     }
     sub.push_str(&format!(
-        ". {} of {} stars brighter than V {}",
+        ". {} of {} brighter than V {}",
         view.visible_count,
-        view.stars.len(),
+        crate::report::counted(view.stars.len() as u64, "star", "stars"),
         format_mag(limit)
     ));
     if view.options.extinction_mag_per_kly > 0.0 {

@@ -472,6 +472,10 @@ fn sector_messages_count_in_the_singular_for_one() {
     );
     let out = starloom_ok(&dir, &["map", "one.csv", "--out", "one.png"]);
     assert!(stdout(&out).contains("(1 system, "), "{}", stdout(&out));
+    // The sheet's title block says the same.
+    starloom_ok(&dir, &["map", "one.csv", "--out", "one.svg"]);
+    let svg = String::from_utf8(read_bytes(&dir, "one.svg")).unwrap();
+    assert!(svg.contains(">1 system shown<"), "title block of one.svg");
 }
 
 #[test]
