@@ -11,6 +11,8 @@
 //! all outlined, radii up to 11.6 px. On the 2 cores, idle at the time
 //! (load average 0.0-0.3, 2 December 2026): rasterise 319 ms best,
 //! encode 198 ms, both 518 ms, `png_bytes` pipelined 420 ms; PNG 40.6 MB.
+//! On a 2-core AMD EPYC VM, idle (4 December 2026): rasterise 232 ms best
+//! (241 ms median), encode 133 ms, both 365 ms, pipelined 310 ms.
 
 use starloom::render::output::{encode_png, png_bytes};
 use starloom::render::paper::Paper;

@@ -21,6 +21,15 @@
 //! 13 ms, 337 ms in all (PNG 7.4 MB). Under load from other sessions'
 //! builds (load average 1-2) the same stages took 180-220, 150-170 and
 //! 6-13 ms.
+//!
+//! 2026-12-04 on a 2-core AMD EPYC VM, idle (load average 0.5-1.2): the
+//! generated catalogue (1 288 502 rows) read 157-169 ms, built 109-111 ms,
+//! drawn and encoded 117-120 ms, written 10-34 ms; on `populate --box
+//! 737,737,737 --seed 1` (1 289 413 rows) with 5 runs, drawing total
+//! 147 ms best, 178 ms median. The whole command, `starloom map p.csv
+//! --paper a3 --out m.png --timings`: 0.36-0.39 s wall over 4 runs (0.45-
+//! 0.47 s user, 0.14-0.18 s system, 223 MB peak RSS); the same sheet from
+//! `tools/compare_map_python.py` (matplotlib 3.11.2): 7.8-8.1 s.
 
 use starloom::map::{MapOptions, build_sheets};
 use starloom::render::overlay::Overlay;
