@@ -23,6 +23,7 @@ use crate::map::style::{
     GRID_PT, HEIGHT_PT, LABEL_PT, MM_PER_PT, Palette, Symbol, crowding, radius_mm,
 };
 use crate::map::view::{Projector, ViewSpec};
+use crate::physics::StarKind;
 use crate::render::overlay::Overlay;
 use crate::render::raster::anchor_shift_em;
 use crate::render::scene::{Anchor, Item, Rgba, Scene, Shape, Stroke};
@@ -214,6 +215,11 @@ fn class_colours(cat: &Catalogue, systems: &[Sys]) -> Vec<(char, Rgba)> {
             let mut sums = [[0u64; 4]; 11];
             for s in part {
                 let i = s.look as usize;
+                // Remnants without a spectrum (codes `BH`, `NS`) have no class
+                // colour: a black hole's `B` is not a B star.
+                if matches!(cat.kind[i], StarKind::BlackHole | StarKind::NeutronStar) {
+                    continue;
+                }
                 let letter = cat.class[i].letter() as usize;
                 if let Some(&k) = slot.get(letter).filter(|&&k| k != usize::MAX) {
                     let c = cat.color_rgb[i];

@@ -543,3 +543,39 @@ fn index_labels_keep_clear_of_the_tile_names() {
         }
     }
 }
+
+#[test]
+fn remnants_without_a_spectrum_get_no_class_colour() {
+    // A black hole's class code is `BH` and a neutron star's `NS`: their first
+    // letters are not spectral classes, so the class key must not show a
+    // black "B" (or an "N") for a sector without B stars.
+    let mut c = known();
+    c.push(row(
+        20,
+        "Hollow",
+        [-10.0, 10.0, 0.0],
+        9.0,
+        KindChoice::Explicit(StarKind::BlackHole),
+    ));
+    c.push(row(
+        21,
+        "Needle",
+        [10.0, -10.0, 0.0],
+        1.4,
+        KindChoice::Explicit(StarKind::NeutronStar),
+    ));
+    let s = build_sheets(&c, &bare(), &Overlay::default()).unwrap();
+    assert_eq!(s.systems, 7);
+    let letters: Vec<&str> = s.sheets[0]
+        .scene
+        .items
+        .iter()
+        .filter_map(|i| match i {
+            Item::Text { text, .. } if text.len() == 1 => Some(text.as_str()),
+            _ => None,
+        })
+        .collect();
+    // The five Sun-like stars are G (or F/K by age); no B or N.
+    assert!(letters.iter().any(|t| "FGK".contains(*t)), "{letters:?}");
+    assert!(!letters.contains(&"B") && !letters.contains(&"N"), "{letters:?}");
+}
