@@ -31,8 +31,8 @@ pub struct HrAxes {
 
 impl HrAxes {
     /// Axes fitted to the rows with a finite, positive temperature and
-    /// luminosity (temperatures kept within 300 K – 10^6 K, luminosities
-    /// within 10^-8 – 10^8 Lsun), padded to whole decades of luminosity.
+    /// luminosity (temperatures kept within 100 K – 10^7 K, luminosities
+    /// within 10^-12 – 10^10 Lsun), padded to whole decades of luminosity.
     pub fn fit(cat: &Catalogue) -> HrAxes {
         let (mut t0, mut t1, mut l0, mut l1) = (f32::MAX, f32::MIN, f32::MAX, f32::MIN);
         for (t, l) in cat.teff_k.iter().zip(&cat.luminosity_lsun) {
@@ -86,11 +86,16 @@ impl HrAxes {
     }
 }
 
+/// Temperatures an HR diagram shows, K: from below the coldest known brown
+/// dwarfs (Y dwarfs near 250 K) to above young neutron stars' surfaces.
+const TEFF_RANGE_K: (f64, f64) = (100.0, 1.0e7);
+/// Luminosities it shows, Lsun: from old neutron stars (10^-9 Lsun and
+/// fainter) to above the brightest stars.
+const LUMINOSITY_RANGE_LSUN: (f64, f64) = (1e-12, 1e10);
+
 fn log_point(teff_k: f64, lum: f64) -> Option<(f32, f32)> {
-    let ok = teff_k.is_finite()
-        && lum.is_finite()
-        && (300.0..=1.0e6).contains(&teff_k)
-        && (1e-8..=1e8).contains(&lum);
+    let ok = (TEFF_RANGE_K.0..=TEFF_RANGE_K.1).contains(&teff_k)
+        && (LUMINOSITY_RANGE_LSUN.0..=LUMINOSITY_RANGE_LSUN.1).contains(&lum);
     ok.then(|| (teff_k.log10() as f32, lum.log10() as f32))
 }
 

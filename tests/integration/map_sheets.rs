@@ -577,5 +577,8 @@ fn remnants_without_a_spectrum_get_no_class_colour() {
         .collect();
     // The five Sun-like stars are G (or F/K by age); no B or N.
     assert!(letters.iter().any(|t| "FGK".contains(*t)), "{letters:?}");
-    assert!(!letters.contains(&"B") && !letters.contains(&"N"), "{letters:?}");
+    assert!(
+        !letters.contains(&"B") && !letters.contains(&"N"),
+        "{letters:?}"
+    );
 }

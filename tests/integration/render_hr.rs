@@ -78,3 +78,33 @@ fn summary_writes_the_diagram() {
     assert_user_error(&bad, ".png, .svg or .pdf");
     assert!(!dir.join("x.png").exists() && !dir.join("x.gif").exists());
 }
+
+#[test]
+fn the_coldest_brown_dwarfs_and_faint_neutron_stars_are_plotted() {
+    // Y dwarfs reach about 250 K (Kirkpatrick et al. 2021, ApJS 253, 7: the
+    // coldest in the 20 pc census; from memory for the exact figure) and
+    // generated 13 Gyr old brown dwarfs of 0.013 Msun about 225 K; a cooled
+    // neutron star of 10^4 K and 10 km shines about 4e-9 Lsun (Stefan–
+    // Boltzmann). All must be on the diagram, not silently dropped.
+    let csv = "name,x_ly,y_ly,z_ly,teff_k,luminosity_lsun,kind\n\
+Sunlike,1,0,0,5772,1,main-sequence\n\
+Frost,2,0,0,225,3.1e-8,brown-dwarf\n\
+Ember,3,0,0,10484,3.5e-9,neutron-star\n";
+    let dir = work_dir("render_hr_extremes");
+    let path = dir.join("extremes.csv");
+    std::fs::write(&path, csv).unwrap();
+    let cat = read_catalogue(&path).unwrap();
+    let scene = hr_scene(&cat, Theme::Print);
+    let plotted = scene
+        .items
+        .iter()
+        .find_map(|i| match i {
+            Item::Stars { centres_mm, .. } => Some(centres_mm.len()),
+            _ => None,
+        })
+        .expect("a star layer");
+    assert_eq!(plotted, 3);
+    let axes = HrAxes::fit(&cat);
+    assert!(axes.to_page(225.0, 3.1e-8).is_some());
+    assert!(axes.to_page(10484.0, 3.5e-9).is_some());
+}
