@@ -2,7 +2,10 @@
 //! each star and keeping a label only where it overlaps no label already
 //! placed, no obstacle (star discs, keep-out boxes) and stays inside the
 //! map area. Crowded sheets therefore lose their least important labels
-//! instead of shrinking the type.
+//! instead of shrinking the type. A label also keeps off other stars'
+//! markers; where no place around a star is free of them, it may cover
+//! the markers of much fainter stars (under [`FAINTER_SHARE`] of its own
+//! marker's radius), so a bright star in a crowd keeps its name.
 //!
 //! # Allocations
 //! One hash grid of placed boxes (8 mm cells) and the output.
@@ -97,6 +100,10 @@ pub struct Placed {
 /// Gap between a star's marker and its label, mm.
 const GAP_MM: f32 = 0.6;
 
+/// A label may cover a marker whose radius is under this share of its own
+/// star's marker radius when no place free of markers is left.
+pub const FAINTER_SHARE: f32 = 0.5;
+
 /// Candidate boxes around an anchor, best first: right, left, above,
 /// below, then the four diagonals.
 fn candidates(r: &LabelRequest) -> [Rect; 8] {
@@ -153,13 +160,46 @@ impl Grid {
     }
 }
 
+/// Star markers as boxes with their radii, in the same cells as [`Grid`].
+struct MarkerGrid {
+    cells: HashMap<(i32, i32), Vec<(Rect, f32)>>,
+}
+
+impl MarkerGrid {
+    /// True when `r` overlaps a marker of radius `min_radius_mm` or more.
+    fn hits(&self, r: &Rect, min_radius_mm: f32) -> bool {
+        let (cx0, cy0, cx1, cy1) = Grid::cell_range(r);
+        for cx in cx0..=cx1 {
+            for cy in cy0..=cy1 {
+                if let Some(v) = self.cells.get(&(cx, cy))
+                    && v.iter().any(|(o, d)| *d >= min_radius_mm && o.overlaps(r))
+                {
+                    return true;
+                }
+            }
+        }
+        false
+    }
+
+    fn insert(&mut self, r: Rect, radius_mm: f32) {
+        let (cx0, cy0, cx1, cy1) = Grid::cell_range(&r);
+        for cx in cx0..=cx1 {
+            for cy in cy0..=cy1 {
+                self.cells.entry((cx, cy)).or_default().push((r, radius_mm));
+            }
+        }
+    }
+}
+
 /// Places labels for `requests` (highest priority first) inside `area`,
 /// avoiding each other, the `obstacles` (star discs as boxes, panels) and
-/// every star's marker, and keeping at most `budget` labels. Deterministic.
+/// every star's marker but those of much fainter stars (see the module
+/// notes), and keeping at most `budget` labels. Deterministic.
 ///
 /// # Guarantees
 /// No two returned boxes overlap; every box lies inside `area`; no box
-/// overlaps an obstacle.
+/// overlaps an obstacle; no box overlaps another star's marker of at least
+/// [`FAINTER_SHARE`] times its own star's marker radius.
 pub fn place_labels(
     requests: &[LabelRequest],
     obstacles: &[Rect],
@@ -174,9 +214,8 @@ pub fn place_labels(
 /// markers when no free place is left around them.
 ///
 /// # Guarantees
-/// No two returned boxes overlap; every box lies inside `area`; no box
-/// overlaps an obstacle; only the first `insist` requests' boxes may
-/// overlap other stars' markers.
+/// As [`place_labels`], except that the first `insist` requests' boxes may
+/// overlap any other star's marker.
 pub fn place_labels_insisting(
     requests: &[LabelRequest],
     insist: usize,
@@ -191,18 +230,21 @@ pub fn place_labels_insisting(
         blocked.insert(*o);
     }
     // Each star's own marker blocks other labels.
-    let mut markers = Grid {
+    let mut markers = MarkerGrid {
         cells: HashMap::new(),
     };
     for r in requests {
         let [x, y] = r.anchor_mm;
         let d = r.radius_mm;
-        markers.insert(Rect {
-            x0: x - d,
-            y0: y - d,
-            x1: x + d,
-            y1: y + d,
-        });
+        markers.insert(
+            Rect {
+                x0: x - d,
+                y0: y - d,
+                x1: x + d,
+                y1: y + d,
+            },
+            d,
+        );
     }
     let mut placed_grid = Grid {
         cells: HashMap::new(),
@@ -217,9 +259,18 @@ pub fn place_labels_insisting(
         }
         let cands = candidates(r);
         let free = |c: &Rect| area.contains(c) && !placed_grid.hits(c) && !blocked.hits(c);
+        // No other star's marker (nor its own: the diagonal places of a
+        // large disc touch its box); failing that, none but much fainter
+        // stars' markers.
+        let clear_of = |c: &Rect, min_radius_mm: f32| !markers.hits(c, min_radius_mm);
         let found = cands
             .iter()
-            .find(|c| free(c) && !markers.hits(c))
+            .find(|c| free(c) && clear_of(c, 0.0))
+            .or_else(|| {
+                cands
+                    .iter()
+                    .find(|c| free(c) && clear_of(c, FAINTER_SHARE * r.radius_mm))
+            })
             .or_else(|| {
                 (i < insist)
                     .then(|| cands.iter().find(|c| free(c)))
@@ -290,6 +341,33 @@ mod tests {
         assert_eq!(insisted[0].request, 0);
     }
 
+    #[test]
+    fn a_bright_star_in_a_crowd_of_faint_ones_keeps_its_name() {
+        // A 3 mm disc ringed by 0.5 mm dots closer than its label is wide:
+        // its label covers some dots. Ringed by 2 mm discs (over half its
+        // radius) it still gets none, as a faint star among equals.
+        let req = |x: f32, y: f32, r: f32| LabelRequest {
+            anchor_mm: [x, y],
+            radius_mm: r,
+            width_mm: 12.0,
+            height_mm: 4.0,
+        };
+        let area = Rect::new(0.0, 0.0, 100.0, 100.0);
+        let ring = |r: f32| {
+            let mut reqs = vec![req(50.0, 50.0, 3.0)];
+            for k in 0..24 {
+                let a = k as f32 * std::f32::consts::PI / 12.0;
+                reqs.push(req(50.0 + 6.0 * a.cos(), 50.0 + 6.0 * a.sin(), r));
+            }
+            reqs
+        };
+        let faint = place_labels(&ring(0.5), &[], area, 1);
+        assert_eq!(faint.len(), 1);
+        assert_eq!(faint[0].request, 0);
+        let equals = place_labels(&ring(2.0), &[], area, 1);
+        assert!(equals.iter().all(|p| p.request != 0), "{equals:?}");
+    }
+
     proptest! {
         #![proptest_config(ProptestConfig::with_cases(64))]
         #[test]
@@ -311,9 +389,11 @@ mod tests {
                 for b in &placed[i + 1..] {
                     prop_assert!(!a.rect.overlaps(&b.rect), "{:?} overlaps {:?}", a, b);
                 }
-                // No label covers another star's marker.
+                // No label covers another star's marker unless that star is
+                // much fainter (a smaller marker).
+                let own = reqs[a.request].radius_mm;
                 for (j, r) in reqs.iter().enumerate() {
-                    if j == a.request { continue; }
+                    if j == a.request || r.radius_mm < FAINTER_SHARE * own { continue; }
                     let m = Rect { x0: r.anchor_mm[0] - r.radius_mm, y0: r.anchor_mm[1] - r.radius_mm,
                                    x1: r.anchor_mm[0] + r.radius_mm, y1: r.anchor_mm[1] + r.radius_mm };
                     prop_assert!(!a.rect.overlaps(&m));

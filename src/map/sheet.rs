@@ -972,10 +972,34 @@ impl Ctx<'_> {
                 .total_cmp(&lum(&vis[*a]))
                 .then(vis[*a].sys.cmp(&vis[*b].sys))
         };
-        // Route stops first, its two ends before the rest: the ends are
-        // what the user asked about, so they are labelled even where
-        // that covers neighbouring stars.
+        // The user's own systems pinned into a generated sector (rows read
+        // from their file among generated ones) come first, ahead of every
+        // generated star, and are labelled even where that covers
+        // neighbouring stars: they are the story's places.
         let mut insist = 0;
+        let row_origin = |i: usize| cat.origin[self.systems[vis[i].sys as usize].row as usize];
+        if cat.origin.par_iter().any(|&o| o == Origin::Generated)
+            && cat.origin.par_iter().any(|&o| o == Origin::Imported)
+        {
+            let mut pins: Vec<usize> = (0..vis.len())
+                .filter(|&i| {
+                    let s = &self.systems[vis[i].sys as usize];
+                    row_origin(i) == Origin::Imported
+                        && !cat.name[s.row as usize].is_empty()
+                        && (mode != LabelMode::Habitable || s.habitable)
+                })
+                .collect();
+            pins.sort_by(by_lum);
+            insist = pins.len();
+            let rest = order
+                .into_iter()
+                .filter(|&i| row_origin(i) != Origin::Imported);
+            pins.extend(rest);
+            order = pins;
+        }
+        // Route stops before those, its two ends first: the ends are what
+        // the user asked about, so they are labelled even where that
+        // covers neighbouring stars.
         if !self.overlay.route.is_empty() {
             let route = &self.overlay.route;
             let ends = [route[0], route[route.len() - 1]];
@@ -985,12 +1009,23 @@ impl Ctx<'_> {
                 .filter(|&i| ends.contains(&row_of(i)))
                 .collect();
             first.sort_by_key(|&i| (ends.iter().position(|&e| e == row_of(i)), vis[i].sys));
-            insist = first.len();
+            // The ends, then the pins not on the route, insist.
+            let pins: Vec<usize> = order[..insist]
+                .iter()
+                .copied()
+                .filter(|&i| !stops.contains(&row_of(i)))
+                .collect();
+            let rest: Vec<usize> = order[insist..]
+                .iter()
+                .copied()
+                .filter(|&i| !stops.contains(&row_of(i)))
+                .collect();
+            insist = first.len() + pins.len();
             let mut middle: Vec<usize> = (0..vis.len())
                 .filter(|&i| stops.contains(&row_of(i)) && !ends.contains(&row_of(i)))
                 .collect();
             middle.sort_by(by_lum);
-            let rest = order.into_iter().filter(|&i| !stops.contains(&row_of(i)));
+            first.extend(pins);
             first.extend(middle);
             first.extend(rest);
             order = first;

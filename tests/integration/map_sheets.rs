@@ -582,3 +582,40 @@ fn remnants_without_a_spectrum_get_no_class_colour() {
         "{letters:?}"
     );
 }
+
+#[test]
+fn a_pinned_system_in_a_crowded_generated_sector_is_labelled() {
+    // 600 generated stars in a tight disc, and one faint system of the
+    // user's own (an imported row) in its middle: on a sheet with far more
+    // stars than labels the pin still gets its name, because it is the
+    // story's place; as a generated star of its brightness it gets none.
+    let with_pin = |origin: Origin| {
+        let mut c = long_named_cluster(600);
+        for o in c.origin.iter_mut() {
+            *o = Origin::Generated;
+        }
+        c.push(row(
+            9000,
+            "Keeper's Rest",
+            [0.4, 0.3, 0.0],
+            0.2,
+            KindChoice::Auto,
+        ));
+        let last = c.len() - 1;
+        c.origin[last] = origin;
+        c
+    };
+    let opts = bare();
+    let labelled = |c: &Catalogue| {
+        let s = build_sheets(c, &opts, &Overlay::default()).unwrap();
+        assert_eq!(s.sheets.len(), 1);
+        s.sheets[0]
+            .scene
+            .items
+            .iter()
+            .filter_map(text_box)
+            .any(|(t, _)| t == "Keeper's Rest")
+    };
+    assert!(labelled(&with_pin(Origin::Imported)));
+    assert!(!labelled(&with_pin(Origin::Generated)));
+}
