@@ -500,7 +500,7 @@ pub enum NumberOrText {
 }
 
 impl NumberOrText {
-    fn as_text(&self) -> String {
+    pub(crate) fn as_text(&self) -> String {
         match self {
             NumberOrText::Number(v) => format!("{v}"),
             NumberOrText::Text(t) => t.clone(),

@@ -2181,10 +2181,22 @@ pub fn read_sidecar_meta(path: &Path) -> CatalogueMeta {
         .ok()
         .and_then(|t| crate::spec::SpecFile::parse(&t, &side).ok())
     {
-        Some(spec) => CatalogueMeta {
-            title: spec.title,
-            seed: spec.seed,
-        },
+        Some(spec) => {
+            // The sector's centre as `populate --spec` would resolve it:
+            // the origin when the file gives a shape but no centre.
+            let centre_ly = match &spec.centre_ly {
+                None => spec.shape.as_ref().map(|_| [0.0; 3]),
+                Some(v) => {
+                    let text: Vec<String> = v.iter().map(|c| c.as_text()).collect();
+                    crate::spec::parse_centre("centre_ly", &text.join(",")).ok()
+                }
+            };
+            CatalogueMeta {
+                title: spec.title,
+                seed: spec.seed,
+                centre_ly,
+            }
+        }
         None => CatalogueMeta::default(),
     }
 }

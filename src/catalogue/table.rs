@@ -92,6 +92,9 @@ pub struct CatalogueMeta {
     pub title: Option<String>,
     /// Universe seed, if the catalogue was generated.
     pub seed: Option<u64>,
+    /// Centre of the sector it was generated for, ly, if known: maps
+    /// centre on it and measure heights from its plane by default.
+    pub centre_ly: Option<[f64; 3]>,
 }
 
 /// A catalogue of stars, stored column by column.

@@ -27,7 +27,8 @@ pub struct MapArgs {
     /// Perspective look point X,Y,Z, ly (default: the map centre).
     #[arg(long, allow_hyphen_values = true)]
     pub look: Option<String>,
-    /// Map centre X,Y,Z, ly (default: the middle of the catalogue).
+    /// Map centre X,Y,Z, ly; heights are measured from its plane (default: the sector centre in
+    /// the catalogue's sidecar OUT.toml, else the middle of the catalogue).
     #[arg(long = "centre", visible_alias = "center", allow_hyphen_values = true)]
     pub centre: Option<String>,
     /// Paper: a4 (default), a3, a2, a1, a0, letter, legal, tabloid.

@@ -268,7 +268,10 @@ fn class_colours(cat: &Catalogue, systems: &[Sys]) -> Vec<(char, Rgba)> {
 /// [`Error::TooLarge`] when the scale would need more than [`crate::map::MAX_TILES`]
 /// sheets.
 pub fn build_sheets(cat: &Catalogue, opts: &MapOptions, overlay: &Overlay) -> Result<MapSheets> {
-    let centre = opts.centre_ly.unwrap_or_else(|| bbox_centre(cat));
+    let centre = opts
+        .centre_ly
+        .or(cat.meta.centre_ly)
+        .unwrap_or_else(|| bbox_centre(cat));
     let systems = select_systems(cat, opts);
     let radius = systems
         .par_iter()

@@ -146,6 +146,7 @@ pub fn real_catalogue(spec: &SectorSpec) -> Catalogue {
     cat.meta = CatalogueMeta {
         title: spec.title.clone(),
         seed: Some(spec.seed),
+        centre_ly: Some(spec.centre_ly),
     };
     cat
 }

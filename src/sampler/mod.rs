@@ -475,6 +475,7 @@ pub fn generate(spec: &SectorSpec, progress: &(dyn Fn(u64, u64) + Sync)) -> Resu
     out.meta = CatalogueMeta {
         title: spec.title.clone(),
         seed: Some(spec.seed),
+        centre_ly: Some(spec.centre_ly),
     };
     Ok(out)
 }

@@ -234,3 +234,31 @@ fn maps_are_written_in_every_view_and_tiled_when_large() {
     );
     assert_user_error(&out, "--force");
 }
+
+#[test]
+fn a_generated_sector_is_mapped_about_its_own_centre() {
+    // The sidecar records the sector's centre; the map centres on it and
+    // measures heights from its plane, not from the middle of the stars'
+    // bounding box (which never falls exactly on it).
+    let dir = work_dir("cli_map_sidecar_centre");
+    crate::util::starloom_ok(
+        &dir,
+        &[
+            "populate", "--sphere", "25", "--centre", "-50,0,10", "--seed", "5", "--out", "s.csv",
+        ],
+    );
+    crate::util::starloom_ok(&dir, &["map", "s.csv", "--out", "s.svg"]);
+    let svg = std::fs::read_to_string(dir.join("s.svg")).unwrap();
+    assert!(svg.contains("centre -50, 0, 10 ly"), "title block centre");
+    assert!(
+        svg.contains("heights from the plane z = 10 ly"),
+        "height plane"
+    );
+    // --centre still wins.
+    crate::util::starloom_ok(
+        &dir,
+        &["map", "s.csv", "--out", "t.svg", "--centre", "-50,0,0"],
+    );
+    let svg = std::fs::read_to_string(dir.join("t.svg")).unwrap();
+    assert!(svg.contains("heights from the plane z = 0 ly"));
+}
