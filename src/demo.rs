@@ -53,8 +53,7 @@ pub fn demo_spec(pin_file: &Path) -> Result<SectorSpec> {
     );
     spec.title = Some(DEMO_TITLE.to_string());
     spec.home = true;
-    spec.pins = crate::catalogue::reader::read_pins(pin_file)?;
-    spec.pin_file = Some(pin_file.to_path_buf());
+    crate::spec::load_pins(&mut spec, pin_file.to_path_buf(), None)?;
     spec.validate()?;
     Ok(spec)
 }
@@ -111,7 +110,11 @@ pub fn write_demo(dir: &Path, progress: &(dyn Fn(u64, u64) + Sync)) -> Result<De
     crate::sampler::write_sector(&spec, &cat_path, true, None, &|_, _| {})?;
     report.files.push(cat_path.clone());
     let side = crate::spec::sidecar_path(&cat_path);
-    crate::atomic_file::write_bytes(&side, true, crate::spec::to_toml(&spec, None).as_bytes())?;
+    crate::atomic_file::write_bytes(
+        &side,
+        true,
+        crate::spec::to_toml(&spec, None, &side).as_bytes(),
+    )?;
     report.files.push(side);
     progress(1, total);
 

@@ -203,17 +203,33 @@ impl Default for PopulationModel {
     }
 }
 
-/// A user's own system placed by hand (`--pin`).
+/// A user's own system placed by hand (`--pin`): one row of the pin file.
 #[derive(Debug, Clone, PartialEq)]
 pub struct PinnedSystem {
     /// Name of the primary.
     pub name: String,
     /// Position, light years, galactic axes (absolute, not relative to the centre).
     pub position_ly: [f64; 3],
-    /// Initial mass of the primary, solar masses.
-    pub mass_msun: f64,
-    /// Age, gigayears.
-    pub age_gyr: f64,
+    /// What the star is.
+    pub star: PinnedStar,
+}
+
+/// The star of a [`PinnedSystem`].
+#[derive(Debug, Clone, PartialEq)]
+pub enum PinnedStar {
+    /// The row gave at most a mass and an age: the star is evolved like a
+    /// generated one, from this initial mass to this age, with the spec's
+    /// physics.
+    Evolved {
+        /// Initial mass, solar masses.
+        initial_mass_msun: f64,
+        /// Age, gigayears.
+        age_gyr: f64,
+    },
+    /// The row described the star itself (kind, class, Teff, luminosity,
+    /// radius, ...): its values as the catalogue reader reads and completes
+    /// them, the same as `summary` shows for the file.
+    Described(crate::physics::StarProfile),
 }
 
 /// A fully resolved request for a region of space.
@@ -239,6 +255,9 @@ pub struct SectorSpec {
     pub pins: Vec<PinnedSystem>,
     /// The file the pins came from (recorded in the sidecar).
     pub pin_file: Option<PathBuf>,
+    /// FNV-1a hash of the pin file's bytes when it was read (recorded in
+    /// the sidecar, so a changed pin file is noticed on regeneration).
+    pub pin_file_fnv1a: Option<u64>,
     /// Generated systems closer than this to a pin (or the home system) are removed, light years.
     pub pin_clear_ly: f64,
 }
@@ -258,6 +277,7 @@ impl SectorSpec {
             home: false,
             pins: Vec::new(),
             pin_file: None,
+            pin_file_fnv1a: None,
             pin_clear_ly: DEFAULT_PIN_CLEAR_LY,
         }
     }
@@ -565,9 +585,14 @@ pub struct SpecFile {
     /// A sun-like home system at the centre.
     #[serde(skip_serializing_if = "Option::is_none")]
     pub home: Option<bool>,
-    /// CSV file of pinned systems.
+    /// CSV file of pinned systems; a relative path is taken from the
+    /// spec file's folder.
     #[serde(skip_serializing_if = "Option::is_none")]
     pub pin: Option<String>,
+    /// FNV-1a hash of the pin file's bytes, 16 hex digits: when present,
+    /// a pin file whose bytes no longer match is refused.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub pin_fnv1a: Option<String>,
     /// Clearing radius around pins.
     #[serde(skip_serializing_if = "Option::is_none")]
     pub pin_clear_ly: Option<NumberOrText>,
@@ -675,12 +700,79 @@ impl SpecFile {
             } else {
                 base.join(p)
             };
-            spec.pins = crate::catalogue::reader::read_pins(&path)?;
-            spec.pin_file = Some(path);
+            load_pins(&mut spec, path, self.pin_fnv1a.as_deref())?;
         }
         spec.validate()?;
         Ok(spec)
     }
+}
+
+/// Reads the pins of `spec` from `path` (see
+/// [`crate::catalogue::reader::read_pins`]) and records the file and its
+/// hash. `expected_fnv1a` is the hash a spec file recorded: a file whose
+/// bytes no longer match is refused.
+pub fn load_pins(spec: &mut SectorSpec, path: PathBuf, expected_fnv1a: Option<&str>) -> Result<()> {
+    let bytes = std::fs::read(&path).map_err(|e| Error::MissingInput {
+        path: path.clone(),
+        message: e.to_string(),
+    })?;
+    let hash = fnv1a_64(&bytes);
+    if let Some(expected) = expected_fnv1a
+        && u64::from_str_radix(expected.trim(), 16).ok() != Some(hash)
+    {
+        return Err(Error::BadFile {
+            path: path.clone(),
+            message: format!(
+                "the pin file has changed since the spec was written (FNV-1a {hash:016x}, the spec recorded {expected}); restore it, or give it again with --pin to make a new sector"
+            ),
+        });
+    }
+    spec.pins = crate::catalogue::reader::read_pins(&path)?;
+    spec.pin_file = Some(path);
+    spec.pin_file_fnv1a = Some(hash);
+    Ok(())
+}
+
+/// The 64-bit FNV-1a hash of `bytes` (Fowler, Noll and Vo; offset basis
+/// 0xcbf29ce484222325, prime 0x100000001b3): enough to notice an edited
+/// file, not a defence against a deliberate collision.
+fn fnv1a_64(bytes: &[u8]) -> u64 {
+    bytes.iter().fold(0xcbf2_9ce4_8422_2325, |h, &b| {
+        (h ^ b as u64).wrapping_mul(0x0000_0100_0000_01b3)
+    })
+}
+
+/// How the sidecar at `sidecar` names `pin_file`: relative to the
+/// sidecar's folder when the pin file lies in it or below it (so the
+/// folder can move), else absolute.
+fn pin_path_for_sidecar(pin_file: &Path, sidecar: &Path) -> String {
+    let absolute = |p: &Path| normalise(&std::path::absolute(p).unwrap_or(p.to_path_buf()));
+    let pin = absolute(pin_file);
+    let folder = match sidecar.parent() {
+        Some(d) if !d.as_os_str().is_empty() => absolute(d),
+        _ => absolute(Path::new(".")),
+    };
+    match pin.strip_prefix(&folder) {
+        Ok(relative) if !relative.as_os_str().is_empty() => relative.display().to_string(),
+        _ => pin.display().to_string(),
+    }
+}
+
+/// `path` without `.` components and with `..` applied (no file-system
+/// look-ups, so symbolic links are taken as written).
+fn normalise(path: &Path) -> PathBuf {
+    use std::path::Component;
+    let mut out = PathBuf::new();
+    for c in path.components() {
+        match c {
+            Component::CurDir => {}
+            Component::ParentDir => {
+                out.pop();
+            }
+            other => out.push(other),
+        }
+    }
+    out
 }
 
 fn resolve_shape(s: &ShapeFile) -> Result<Shape> {
@@ -724,8 +816,10 @@ fn resolve_shape(s: &ShapeFile) -> Result<Shape> {
 }
 
 /// The sidecar form of a resolved spec (every key filled in), for
-/// `populate --spec PATH.toml` to regenerate the same catalogue.
-pub fn to_spec_file(spec: &SectorSpec, shard: Option<(u64, u64)>) -> SpecFile {
+/// `populate --spec PATH.toml` to regenerate the same catalogue; `sidecar`
+/// is where it will be written (a pin file in its folder is named
+/// relative to it).
+pub fn to_spec_file(spec: &SectorSpec, shard: Option<(u64, u64)>, sidecar: &Path) -> SpecFile {
     let shape = match spec.shape {
         Shape::Box { size_ly } => ShapeFile {
             kind: "box".into(),
@@ -769,12 +863,15 @@ pub fn to_spec_file(spec: &SectorSpec, shard: Option<(u64, u64)>) -> SpecFile {
         keep_remnants: Some(spec.population.keep_remnants),
         physics: Some(spec.population.fidelity.as_str().into()),
         home: Some(spec.home),
-        pin: spec.pin_file.as_ref().map(|p| {
-            std::path::absolute(p)
-                .unwrap_or(p.clone())
-                .display()
-                .to_string()
-        }),
+        pin: spec
+            .pin_file
+            .as_ref()
+            .map(|p| pin_path_for_sidecar(p, sidecar)),
+        pin_fnv1a: spec
+            .pin_file
+            .as_ref()
+            .and(spec.pin_file_fnv1a)
+            .map(|h| format!("{h:016x}")),
         pin_clear_ly: Some(NumberOrText::Number(spec.pin_clear_ly)),
         shard: shard.map(|(k, n)| format!("{k}/{n}")),
         shape: Some(shape),
@@ -789,9 +886,9 @@ pub fn sidecar_path(catalogue: &Path) -> PathBuf {
     PathBuf::from(side)
 }
 
-/// The sidecar TOML text of a resolved spec.
-pub fn to_toml(spec: &SectorSpec, shard: Option<(u64, u64)>) -> String {
-    let body = toml::to_string(&to_spec_file(spec, shard)).unwrap_or_default();
+/// The sidecar TOML text of a resolved spec, to be written at `sidecar`.
+pub fn to_toml(spec: &SectorSpec, shard: Option<(u64, u64)>, sidecar: &Path) -> String {
+    let body = toml::to_string(&to_spec_file(spec, shard, sidecar)).unwrap_or_default();
     format!(
         "# starloom sector spec: `starloom populate --spec THIS_FILE --out FILE` regenerates the same catalogue.\n{body}"
     )
@@ -845,7 +942,7 @@ mod tests {
         spec.density_model = DensityModel::Disk { thick_share: 0.04 };
         spec.population.ages_gyr = [1.0, 3.0];
         spec.home = true;
-        let text = to_toml(&spec, None);
+        let text = to_toml(&spec, None, Path::new("x.toml"));
         let back = SpecFile::parse(&text, Path::new("x.toml"))
             .unwrap()
             .resolve(0, Path::new("."))

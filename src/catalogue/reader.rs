@@ -1437,6 +1437,18 @@ pub fn read_catalogue(path: &Path) -> Result<Catalogue> {
 /// The wanted columns hold exactly what [`read_catalogue`] would give:
 /// when a file leaves a wanted value to be derived, the whole file is read.
 pub fn read_catalogue_columns(path: &Path, wanted: Columns) -> Result<Catalogue> {
+    let mut partial = read_partial(path, wanted)?;
+    let wanted = partial.wanted;
+    finish(&mut partial);
+    let mut cat = partial.cat;
+    fill_unread(&mut cat, wanted);
+    cat.meta = read_sidecar_meta(path);
+    Ok(cat)
+}
+
+/// Parses a catalogue file into rows not yet finished (no ids filled in,
+/// nothing derived).
+fn read_partial(path: &Path, wanted: Columns) -> Result<Partial> {
     let missing = |e: std::io::Error| Error::MissingInput {
         path: path.to_path_buf(),
         message: e.to_string(),
@@ -1445,7 +1457,7 @@ pub fn read_catalogue_columns(path: &Path, wanted: Columns) -> Result<Catalogue>
         .extension()
         .and_then(|e| e.to_str())
         .is_some_and(|e| e.eq_ignore_ascii_case("jsonl") || e.eq_ignore_ascii_case("ndjson"));
-    let mut partial = if is_jsonl {
+    let partial = if is_jsonl {
         let bytes = read_bytes_parallel(path).map_err(missing)?;
         let text = std::str::from_utf8(&bytes).map_err(|e| not_utf8(path, e.valid_up_to()))?;
         read_jsonl(path, text)?
@@ -1455,12 +1467,7 @@ pub fn read_catalogue_columns(path: &Path, wanted: Columns) -> Result<Catalogue>
             None => read_csv_bytes(path, &read_bytes_parallel(path).map_err(missing)?, wanted)?,
         }
     };
-    let wanted = partial.wanted;
-    finish(&mut partial);
-    let mut cat = partial.cat;
-    fill_unread(&mut cat, wanted);
-    cat.meta = read_sidecar_meta(path);
-    Ok(cat)
+    Ok(partial)
 }
 
 /// Bytes per piece when a file is read or checked in parallel.
@@ -2201,19 +2208,33 @@ pub fn read_sidecar_meta(path: &Path) -> CatalogueMeta {
     }
 }
 
-/// Reads pinned systems (`--pin FILE.csv`) in the import format: a
-/// position is required; `mass_msun` defaults to 1 and `age_gyr` to 4.57
-/// (a sun-like star, Bonanno et al. 2002, A&A 390, 1115), names to `Pin N`.
+/// Reads pinned systems (`--pin FILE.csv`) in the import format, through
+/// the same parser and derivation as [`read_catalogue`], so a pin row means
+/// what `summary` shows for it. A position is required; names default to
+/// `Pin N`. Then, for the pins only:
+///
+/// - A row that gives nothing about the star but `mass_msun` and
+///   `age_gyr` (both optional) is a star to evolve, like a generated one:
+///   initial mass `mass_msun` (default 1), age `age_gyr` (default 4.57, a
+///   sun-like star, Bonanno et al. 2002, A&A 390, 1115).
+/// - A row that gives a `kind` and neither a mass nor any of class,
+///   `teff_k`, `luminosity_lsun` and `radius_rsun` is given 1 solar mass,
+///   moved into that kind's allowed range (a neutron star 1.1, a black
+///   hole 3), so the physics builds the whole object.
+/// - Every other row is taken as the reader completes it.
 pub fn read_pins(path: &Path) -> Result<Vec<crate::spec::PinnedSystem>> {
-    let cat = read_catalogue(path)?;
-    let mut pins = Vec::with_capacity(cat.len());
-    for i in 0..cat.len() {
-        let mass = cat.mass_msun[i];
-        let age = cat.age_gyr[i];
+    use crate::spec::PinnedStar;
+    let mut partial = read_partial(path, Columns::ALL)?;
+    let n = partial.cat.len();
+    let mut evolved = vec![false; n];
+    for (i, evolve) in evolved.iter_mut().enumerate() {
+        let c = &mut partial.cat;
+        let line = i as u64 + 2;
+        let (mass, age) = (c.mass_msun[i], c.age_gyr[i]);
         if !(mass.is_nan() || (mass > 0.0 && mass.is_finite())) {
             return Err(Error::BadRow {
                 path: path.to_path_buf(),
-                line: i as u64 + 2,
+                line,
                 column: "mass_msun".into(),
                 message: format!("'{mass}' must be a positive number of solar masses"),
             });
@@ -2221,11 +2242,49 @@ pub fn read_pins(path: &Path) -> Result<Vec<crate::spec::PinnedSystem>> {
         if !(age.is_nan() || (0.0..=13.8).contains(&age)) {
             return Err(Error::BadRow {
                 path: path.to_path_buf(),
-                line: i as u64 + 2,
+                line,
                 column: "age_gyr".into(),
                 message: format!("'{age}' must be an age from 0 to 13.8 Gyr"),
             });
         }
+        let missing = partial.missing[i];
+        let no_light = [c.radius_rsun[i], c.luminosity_lsun[i], c.teff_k[i]]
+            .iter()
+            .all(|v| v.is_nan());
+        let all_missing = MISSING_KIND | MISSING_CLASS | MISSING_COLOUR | MISSING_HABITABLE;
+        *evolve = missing & all_missing == all_missing
+            && no_light
+            && [
+                c.initial_mass_msun[i],
+                c.lifetime_gyr[i],
+                c.hz_inner_au[i],
+                c.hz_outer_au[i],
+                c.abs_mag_v[i],
+            ]
+            .iter()
+            .all(|v| v.is_nan());
+        let kind_only = missing & MISSING_KIND == 0
+            && missing & MISSING_CLASS != 0
+            && no_light
+            && mass.is_nan();
+        if kind_only {
+            let (lo, hi) = crate::physics::allowed_mass_range(KindChoice::Explicit(c.kind[i]));
+            c.mass_msun[i] = 1f64.clamp(lo, hi);
+        }
+    }
+    finish(&mut partial);
+    let cat = partial.cat;
+    let mut pins = Vec::with_capacity(n);
+    for (i, &evolve) in evolved.iter().enumerate() {
+        let star = if evolve {
+            let (mass, age) = (cat.mass_msun[i], cat.age_gyr[i]);
+            PinnedStar::Evolved {
+                initial_mass_msun: if mass.is_nan() { 1.0 } else { mass },
+                age_gyr: if age.is_nan() { 4.57 } else { age },
+            }
+        } else {
+            PinnedStar::Described(cat.profile(i))
+        };
         pins.push(crate::spec::PinnedSystem {
             name: if cat.name[i].is_empty() {
                 format!("Pin {}", i + 1)
@@ -2233,8 +2292,7 @@ pub fn read_pins(path: &Path) -> Result<Vec<crate::spec::PinnedSystem>> {
                 cat.name[i].to_string()
             },
             position_ly: cat.position_ly(i),
-            mass_msun: if mass.is_nan() { 1.0 } else { mass },
-            age_gyr: if age.is_nan() { 4.57 } else { age },
+            star,
         });
     }
     Ok(pins)

@@ -213,9 +213,10 @@ pub fn build_spec(args: &PopulateArgs) -> crate::Result<(spec::SectorSpec, Optio
     if let Some(t) = &args.title {
         file.title = Some(t.clone());
     }
-    let mut base = PathBuf::from(".");
+    let mut base = PathBuf::new();
     if let Some(p) = &args.pin {
         file.pin = Some(p.display().to_string());
+        file.pin_fnv1a = None;
     } else if let Some(sp) = &args.spec {
         base = sp.parent().map(Path::to_path_buf).unwrap_or(base);
     }
@@ -263,7 +264,7 @@ fn run_real(args: &PopulateArgs, spec: &spec::SectorSpec, side: &Path) -> crate:
     real_spec.home = false;
     let text = format!(
         "# written by `starloom populate --real`: add --real to the command below to regenerate the same catalogue.\n{}",
-        spec::to_toml(&real_spec, None)
+        spec::to_toml(&real_spec, None, side)
     );
     crate::atomic_file::write_bytes(side, args.force, text.as_bytes())?;
     let real = cat
@@ -308,7 +309,7 @@ pub fn run(args: PopulateArgs) -> anyhow::Result<ExitCode> {
     crate::atomic_file::write_bytes(
         &side,
         args.force,
-        spec::to_toml(&spec, shard_pair).as_bytes(),
+        spec::to_toml(&spec, shard_pair, &side).as_bytes(),
     )?;
     println!(
         "wrote {} ({} counting brown dwarfs, {}) to {}",

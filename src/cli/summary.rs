@@ -66,7 +66,13 @@ pub fn run(args: SummaryArgs) -> anyhow::Result<ExitCode> {
                 .shard
                 .as_deref()
                 .and_then(|t| super::populate::parse_shard(t).ok());
-            let spec = f.resolve(0, std::path::Path::new("/")).ok()?;
+            // Pins do not change the volume, and the pin file may have moved.
+            let volume_only = crate::spec::SpecFile {
+                pin: None,
+                pin_fnv1a: None,
+                ..f
+            };
+            let spec = volume_only.resolve(0, std::path::Path::new("/")).ok()?;
             Some(crate::sampler::shard_volume_ly3(&spec, shard))
         });
     let s = crate::report::summarise(&cat, volume);

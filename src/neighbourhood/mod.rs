@@ -185,6 +185,7 @@ pub fn fill_catalogue(spec: &SectorSpec, real: &Catalogue) -> Result<Catalogue> 
     gspec.home = false;
     gspec.pins.clear();
     gspec.pin_file = None;
+    gspec.pin_file_fnv1a = None;
     let generated = crate::sampler::generate(&gspec, &|_, _| {})?;
     let shells = shell_of(EXTRACT_REACH_LY) + 1;
     // Real faint stars per shell.

@@ -22,7 +22,7 @@ use crate::catalogue::{Catalogue, CatalogueMeta, Format, Origin, RowView, TextBu
 use crate::error::{Error, Result};
 use crate::population::{MAX_MEMBERS, Member, Population};
 use crate::seed::{Stream, rng_for};
-use crate::spec::SectorSpec;
+use crate::spec::{PinnedStar, SectorSpec};
 use cells::{CELL_EDGE_LY, CellGrid, cell_of};
 use density::Density;
 use rand::RngExt;
@@ -56,8 +56,7 @@ pub struct Shard {
 struct FixedSystem {
     name: String,
     position_ly: [f64; 3],
-    mass_msun: f64,
-    age_gyr: f64,
+    star: PinnedStar,
     index: u64,
     origin: Origin,
 }
@@ -126,8 +125,7 @@ impl SectorPlan {
             list.push(FixedSystem {
                 name: pin.name.clone(),
                 position_ly: pin.position_ly,
-                mass_msun: pin.mass_msun,
-                age_gyr: pin.age_gyr,
+                star: pin.star.clone(),
                 index,
                 origin: Origin::Imported,
             });
@@ -141,8 +139,10 @@ impl SectorPlan {
             fixed.entry(cell).or_default().push(FixedSystem {
                 name,
                 position_ly: p,
-                mass_msun: 1.0,
-                age_gyr: HOME_AGE_GYR,
+                star: PinnedStar::Evolved {
+                    initial_mass_msun: 1.0,
+                    age_gyr: HOME_AGE_GYR,
+                },
                 index: HOME_INDEX,
                 origin: Origin::Generated,
             });
@@ -267,7 +267,13 @@ impl SectorPlan {
         if let Some(list) = self.fixed.get(&cell) {
             for f in list {
                 let skey = system_key(key, f.index);
-                let profile = self.population.evolve(f.mass_msun, f.age_gyr);
+                let profile = match f.star {
+                    PinnedStar::Evolved {
+                        initial_mass_msun,
+                        age_gyr,
+                    } => self.population.evolve(initial_mass_msun, age_gyr),
+                    PinnedStar::Described(profile) => profile,
+                };
                 scratch.members.clear();
                 scratch.members.push(Member {
                     slot: 0,

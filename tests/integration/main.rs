@@ -15,6 +15,7 @@ mod routes;
 mod sector_census;
 mod sector_cli;
 mod sector_determinism;
+mod sector_pins;
 mod sector_reader;
 mod sector_spec;
 mod sector_tiling;
