@@ -5,6 +5,9 @@ use std::process::ExitCode;
 
 fn main() -> ExitCode {
     let cli = starloom::cli::args::Cli::parse();
+    // Without the handler a signal still stops the run, only leaving the
+    // temporary file behind, so a failure to install it is not fatal.
+    let _ = starloom::cli::interrupt::install();
     match starloom::cli::run(cli) {
         Ok(code) => code,
         Err(err) => {

@@ -4,6 +4,7 @@
 
 pub mod args;
 pub mod demo;
+pub mod interrupt;
 pub mod map;
 pub mod neighbours;
 pub mod populate;

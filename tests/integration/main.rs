@@ -2,6 +2,7 @@
 
 mod census_hot_stars;
 mod cli_demo;
+mod cli_interrupt;
 mod cli_map;
 mod cli_routes;
 mod cli_sky;
