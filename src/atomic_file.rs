@@ -172,6 +172,37 @@ pub fn check_target(path: &Path, force: bool) -> Result<()> {
     Ok(())
 }
 
+/// Free bytes for an unprivileged writer on the file system of `path`'s
+/// folder, or `None` when the system cannot tell.
+pub fn free_space(path: &Path) -> Option<u64> {
+    fs4::available_space(target_folder(path)).ok()
+}
+
+/// Headroom [`check_free_space`] asks for beyond the estimate: 5 % of it
+/// (row sizes vary by a percent or two, star counts by their Poisson
+/// scatter, tiny in large regions) plus 64 MiB, so a write that only just
+/// fits does not leave the disk full for everything else.
+pub fn space_needed(estimate_bytes: u64) -> u64 {
+    estimate_bytes
+        .saturating_add(estimate_bytes / 20)
+        .saturating_add(64 << 20)
+}
+
+/// Refuses, with [`Error::NoSpace`], a file estimated at `estimate_bytes`
+/// when the target's file system has fewer than
+/// [`space_needed`]`(estimate_bytes)` bytes free (`free_bytes`, from
+/// [`free_space`] or a test). Call it before any work starts.
+pub fn check_free_space(path: &Path, estimate_bytes: u64, free_bytes: u64) -> Result<()> {
+    if space_needed(estimate_bytes) > free_bytes {
+        return Err(Error::NoSpace {
+            path: path.to_path_buf(),
+            estimate_bytes,
+            free_bytes,
+        });
+    }
+    Ok(())
+}
+
 /// Writes a file through `fill`, atomically: the bytes go to a hidden
 /// temporary file in the same folder, which is renamed over `path` only
 /// when `fill` succeeded and the data is handed to the operating system
@@ -249,6 +280,32 @@ mod tests {
         assert!(!failing.exists());
         assert_eq!(std::fs::read_dir(&dir).unwrap().count(), 1);
         std::fs::remove_dir_all(&dir).unwrap();
+    }
+
+    #[test]
+    fn refuses_a_file_larger_than_the_free_space_less_the_margin() {
+        let path = Path::new("big.csv");
+        let gb = 1_000_000_000;
+        // 65 GB of catalogue on a disk with 60 GB free: refused, naming both.
+        let err = check_free_space(path, 65 * gb, 60 * gb).unwrap_err();
+        assert!(matches!(err, Error::NoSpace { .. }));
+        assert_eq!(
+            err.to_string(),
+            "big.csv would take about 65.0 GB and its file system has 60.0 GB free, too little \
+with a 5 % margin; split it with --shard K/N (each slice about 1/N of that), write it to a disk with more room \
+or ask for a smaller region"
+        );
+        // Within the margin (5 % + 64 MiB) is refused too; beyond it is fine.
+        assert!(check_free_space(path, 60 * gb, 62 * gb).is_err());
+        assert!(check_free_space(path, 60 * gb, 63 * gb + (64 << 20)).is_ok());
+        assert!(check_free_space(path, 0, 64 << 20).is_ok());
+        assert!(check_free_space(path, 0, (64 << 20) - 1).is_err());
+        assert!(check_free_space(path, u64::MAX, u64::MAX - 1).is_err());
+    }
+
+    #[test]
+    fn free_space_of_a_bare_name_is_that_of_the_current_folder() {
+        assert!(free_space(Path::new("out.csv")).is_some_and(|b| b > 0));
     }
 
     #[test]

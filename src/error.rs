@@ -60,6 +60,22 @@ pub enum Error {
     /// A request would need more memory than is sensible.
     #[error("{0}")]
     TooLarge(String),
+    /// An output file would not fit on its file system (see
+    /// [`check_free_space`](crate::atomic_file::check_free_space)).
+    #[error(
+        "{} would take about {} and its file system has {} free, too little with a 5 % margin; split it with --shard K/N (each slice about 1/N of that), write it to a disk with more room or ask for a smaller region",
+        path.display(),
+        size_text(*estimate_bytes),
+        size_text(*free_bytes)
+    )]
+    NoSpace {
+        /// The file to be written.
+        path: PathBuf,
+        /// Its estimated size, bytes.
+        estimate_bytes: u64,
+        /// Free bytes on its file system.
+        free_bytes: u64,
+    },
     /// A name or id that matches nothing, with close suggestions.
     #[error("{what} '{given}' is not in the catalogue{suggestion}")]
     UnknownName {
@@ -88,6 +104,16 @@ impl Error {
             value: value.to_string(),
             allowed: allowed.to_string(),
         }
+    }
+}
+
+/// A byte count for a message: decimal gigabytes with one decimal from
+/// 1 GB, whole megabytes below.
+fn size_text(bytes: u64) -> String {
+    if bytes >= 1_000_000_000 {
+        format!("{:.1} GB", bytes as f64 / 1e9)
+    } else {
+        format!("{:.0} MB", bytes as f64 / 1e6)
     }
 }
 

@@ -115,29 +115,43 @@ impl Population {
         )
     }
 
-    /// Mean number of stars (not brown dwarfs, after kicks) per system,
-    /// estimated from a fixed, seed-independent sample of 65 536 systems
-    /// drawn through [`Population::draw_system`] itself, so the sampler's
-    /// system counts reproduce the requested star density. Its relative
-    /// standard error is about 0.15 %.
-    pub fn mean_stars_per_system(&self) -> f64 {
+    /// Mean numbers of stars (not brown dwarfs, after kicks) and of all
+    /// members per system, estimated from a fixed, seed-independent sample
+    /// of 65 536 systems drawn through [`Population::draw_system`] itself,
+    /// so the sampler's system counts reproduce the requested star density.
+    /// The relative standard error of the star mean is about 0.15 %.
+    pub fn system_means(&self) -> SystemMeans {
         use rayon::prelude::*;
         const N: u64 = 1 << 16;
         const CALIBRATION_SEED: u64 = 0x5EED_CA11_B8A7_E000;
-        let stars: u64 = (0..64u64)
+        let (stars, members): (u64, u64) = (0..64u64)
             .into_par_iter()
             .map_init(
                 || Vec::with_capacity(MAX_MEMBERS),
                 |buf, chunk| {
-                    let mut n = 0u64;
+                    let (mut stars, mut members) = (0u64, 0u64);
                     for i in chunk * (N / 64)..(chunk + 1) * (N / 64) {
                         self.draw_system(CALIBRATION_SEED, i, buf);
-                        n += buf.iter().filter(|m| m.profile.kind.is_star()).count() as u64;
+                        stars += buf.iter().filter(|m| m.profile.kind.is_star()).count() as u64;
+                        members += buf.len() as u64;
                     }
-                    n
+                    (stars, members)
                 },
             )
-            .sum();
-        (stars as f64 / N as f64).max(1e-3)
+            .reduce(|| (0, 0), |a, b| (a.0 + b.0, a.1 + b.1));
+        SystemMeans {
+            stars: (stars as f64 / N as f64).max(1e-3),
+            members: (members as f64 / N as f64).max(1e-3),
+        }
     }
+}
+
+/// Mean counts per system of a [`Population`] (see
+/// [`Population::system_means`]).
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct SystemMeans {
+    /// Stars per system, brown dwarfs not counted; at least 0.001.
+    pub stars: f64,
+    /// Members per system (catalogue rows), brown dwarfs counted; at least 0.001.
+    pub members: f64,
 }

@@ -20,7 +20,7 @@ use crate::catalogue::designations::{cell_key, star_id, system_key};
 use crate::catalogue::names::{member_suffix, system_name};
 use crate::catalogue::{Catalogue, CatalogueMeta, Format, Origin, RowView, TextBuffer};
 use crate::error::{Error, Result};
-use crate::population::{MAX_MEMBERS, Member, Population};
+use crate::population::{MAX_MEMBERS, Member, Population, SystemMeans};
 use crate::seed::{Stream, rng_for};
 use crate::spec::{PinnedStar, SectorSpec};
 use cells::{CELL_EDGE_LY, CellGrid, cell_of};
@@ -68,6 +68,7 @@ pub struct SectorPlan {
     density: Density,
     population: Population,
     mean_stars_per_system: f64,
+    members_per_star: f64,
     fixed: HashMap<[i64; 3], Vec<FixedSystem>>,
     clear_points: Vec<[f64; 3]>,
 }
@@ -81,8 +82,8 @@ impl std::fmt::Debug for SectorPlan {
     }
 }
 
-fn calibration_cache() -> &'static Mutex<HashMap<String, f64>> {
-    static CACHE: OnceLock<Mutex<HashMap<String, f64>>> = OnceLock::new();
+fn calibration_cache() -> &'static Mutex<HashMap<String, SystemMeans>> {
+    static CACHE: OnceLock<Mutex<HashMap<String, SystemMeans>>> = OnceLock::new();
     CACHE.get_or_init(|| Mutex::new(HashMap::new()))
 }
 
@@ -96,10 +97,10 @@ impl SectorPlan {
             .lock()
             .ok()
             .and_then(|c| c.get(&key).copied());
-        let mean_stars_per_system = match cached {
+        let means = match cached {
             Some(v) => v,
             None => {
-                let v = population.mean_stars_per_system();
+                let v = population.system_means();
                 if let Ok(mut c) = calibration_cache().lock() {
                     c.insert(key, v);
                 }
@@ -153,7 +154,8 @@ impl SectorPlan {
             grid: CellGrid::for_spec(spec),
             density: Density::new(spec),
             population,
-            mean_stars_per_system,
+            mean_stars_per_system: means.stars,
+            members_per_star: means.members / means.stars,
             fixed,
             clear_points,
         })
@@ -190,6 +192,12 @@ impl SectorPlan {
             }
         }
         sum * 8.0 * h[0] * h[1] * h[2] / (n * n * n) as f64
+    }
+
+    /// The expected number of catalogue rows (brown dwarfs counted), from
+    /// [`SectorPlan::expected_stars`] and the population's members per star.
+    pub fn expected_rows(&self) -> f64 {
+        self.expected_stars() * self.members_per_star
     }
 
     /// Mean stars per system used to turn star density into system counts.
@@ -512,14 +520,19 @@ pub fn write_sector(
 ) -> Result<WriteReport> {
     let format = Format::from_path(path, "--out")?;
     let plan = SectorPlan::new(spec)?;
-    let expected = plan.expected_stars() / shard.map_or(1.0, |s| s.count as f64);
+    let slices = shard.map_or(1.0, |s| s.count as f64);
+    let expected = plan.expected_stars() / slices;
+    let estimate_bytes = plan.expected_rows() / slices * format.typical_row_bytes();
     if expected > MAX_FILE_STARS {
         return Err(Error::TooLarge(format!(
             "the request would write about {expected:.3e} stars (about {:.0} GB) to one file, more than the {MAX_FILE_STARS:.0e} allowed; split it with --shard K/N or ask for a smaller region",
-            expected * 220.0 / 1e9
+            estimate_bytes / 1e9
         )));
     }
     crate::atomic_file::check_target(path, force)?;
+    if let Some(free_bytes) = crate::atomic_file::free_space(path) {
+        crate::atomic_file::check_free_space(path, estimate_bytes as u64, free_bytes)?;
+    }
     let list = batches(&plan, shard);
     let total: u64 = list.iter().map(|r| r.end - r.start).sum();
     // Batches in flight at once: enough to keep every thread busy while

@@ -303,3 +303,21 @@ fn sector_census_rare_kinds_in_plausible_tiny_amounts() {
     );
     assert!(compact < 1e-3, "neutron stars and black holes {compact}");
 }
+
+/// The row estimate behind the free-space check: expected stars times the
+/// population's members per star. 200 000 rows have a Poisson scatter of
+/// 0.2 %; 2 % leaves room for the calibration's own sampling.
+#[test]
+fn census_expected_rows_match_the_sample() {
+    let spec = SectorSpec::new(
+        SEED,
+        Shape::Box {
+            size_ly: [EDGE_LY; 3],
+        },
+        [0.0; 3],
+    );
+    let plan = starloom::sampler::SectorPlan::new(&spec).unwrap();
+    let rows = sample().len() as f64;
+    let ratio = plan.expected_rows() / rows;
+    assert!((ratio - 1.0).abs() < 0.02, "expected/actual rows {ratio}");
+}

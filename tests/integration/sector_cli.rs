@@ -488,3 +488,44 @@ fn sector_too_far_shows_the_converted_length_in_ly() {
     assert_user_error(&out, "--sphere got '652312.8 ly'");
     assert!(!dir.join("far.csv").exists());
 }
+
+/// Regression: a request far larger than the free disk space used to run
+/// for minutes and fail with "No space left on device"; it is refused up
+/// front, writing nothing. The sphere is sized to about four times the
+/// free space of the test's own folder, so the check is cheap; on a disk
+/// so large that such a sphere passes the star limit, the test says so and
+/// stops.
+#[test]
+fn populate_larger_than_the_free_space_is_refused_up_front() {
+    let dir = work_dir("populate_no_space");
+    let free = starloom::atomic_file::free_space(&dir.join("big.csv"))
+        .expect("the test folder's free space is known");
+    // About 273 CSV bytes per star at the default density of 0.0025 per ly³.
+    let stars = 4.0 * free as f64 / 273.0;
+    if stars > 0.5 * starloom::sampler::MAX_FILE_STARS {
+        eprintln!("skipped: {free} bytes free is more than the star limit can exceed");
+        return;
+    }
+    let radius = (stars / (0.0025 * 4.0 / 3.0 * std::f64::consts::PI)).cbrt();
+    let out = starloom(
+        &dir,
+        &[
+            "populate",
+            "--sphere",
+            &format!("{radius:.0}"),
+            "--seed",
+            "1",
+            "--out",
+            "big.csv",
+        ],
+    );
+    assert_user_error(
+        &out,
+        "free, too little with a 5 % margin; split it with --shard K/N",
+    );
+    assert_eq!(
+        std::fs::read_dir(&dir).unwrap().count(),
+        0,
+        "nothing written"
+    );
+}
