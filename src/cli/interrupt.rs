@@ -1,18 +1,20 @@
-//! What the binary does on Ctrl-C (SIGINT), SIGTERM or SIGHUP: remove the
+//! What the binary does on Ctrl-C (SIGINT) or SIGTERM: remove the
 //! temporary files being written (see
 //! [`remove_unfinished`](crate::atomic_file::remove_unfinished)), say so in
 //! one line and exit with the shell's code for the signal, 128 + its
-//! number (130 for SIGINT, 143 for SIGTERM).
+//! number (130 for SIGINT, 143 for SIGTERM). SIGHUP keeps its default, so
+//! `nohup starloom populate ...` still outlives its terminal (a handler
+//! would replace the ignore that `nohup` sets).
 
-/// Starts a thread that waits for SIGINT, SIGTERM or SIGHUP and then
+/// Starts a thread that waits for SIGINT or SIGTERM and then
 /// cleans up and exits. Call it once, from the binary; library users keep
 /// the default signal handling. On systems other than Unix it does
 /// nothing.
 pub fn install() -> std::io::Result<()> {
     #[cfg(unix)]
     {
-        use signal_hook::consts::{SIGHUP, SIGINT, SIGTERM};
-        let mut signals = signal_hook::iterator::Signals::new([SIGINT, SIGTERM, SIGHUP])?;
+        use signal_hook::consts::{SIGINT, SIGTERM};
+        let mut signals = signal_hook::iterator::Signals::new([SIGINT, SIGTERM])?;
         std::thread::Builder::new()
             .name("signals".into())
             .spawn(move || {
