@@ -283,13 +283,20 @@ impl SectorSpec {
     }
 
     /// Checks every value; the sampler relies on this having passed.
+    /// Errors name the command-line flag of the bad setting.
     pub fn validate(&self) -> Result<()> {
-        let positive = |name: &str, v: f64| -> Result<()> {
+        self.validate_named(&|setting| setting.flag().to_string())
+    }
+
+    /// Checks every value, naming a bad setting by `name` (its flag, or
+    /// the spec file, line and key it came from).
+    fn validate_named(&self, name: &dyn Fn(Setting) -> String) -> Result<()> {
+        let positive = |setting: Setting, v: f64| -> Result<()> {
             if v.is_finite() && v > 0.0 {
                 Ok(())
             } else {
                 Err(Error::invalid(
-                    name,
+                    &name(setting),
                     v,
                     "it must be a positive, finite length",
                 ))
@@ -298,32 +305,34 @@ impl SectorSpec {
         match self.shape {
             Shape::Box { size_ly } => {
                 for v in size_ly {
-                    positive("--box", v)?;
+                    positive(Setting::BoxSize, v)?;
                 }
             }
-            Shape::Sphere { radius_ly } => positive("--sphere", radius_ly)?,
+            Shape::Sphere { radius_ly } => positive(Setting::SphereRadius, radius_ly)?,
             Shape::Cylinder {
                 radius_ly,
                 height_ly,
             } => {
-                positive("--cylinder", radius_ly)?;
-                positive("--cylinder", height_ly)?;
+                positive(Setting::CylinderRadius, radius_ly)?;
+                positive(Setting::CylinderHeight, height_ly)?;
             }
         }
         let limit = crate::sampler::cells::MAX_ABS_COORD_LY;
         let h = self.shape.half_extent_ly();
         if h.iter().any(|&h_i| h_i > limit) {
-            // The shape alone is too large: name the shape's option, not the centre.
-            let (option, value) = match self.shape {
-                Shape::Box { size_ly } => ("--box", ly_text(&size_ly)),
-                Shape::Sphere { radius_ly } => ("--sphere", ly_text(&[radius_ly])),
-                Shape::Cylinder {
-                    radius_ly,
-                    height_ly,
-                } => ("--cylinder", ly_text(&[radius_ly, height_ly])),
+            // The shape alone is too large: name the shape's setting, not the centre.
+            let (setting, value) = match self.shape {
+                Shape::Box { size_ly } => (Setting::BoxSize, ly_text(&size_ly)),
+                Shape::Sphere { radius_ly } => (Setting::SphereRadius, ly_text(&[radius_ly])),
+                Shape::Cylinder { radius_ly, .. } if radius_ly > limit => {
+                    (Setting::CylinderRadius, ly_text(&[radius_ly]))
+                }
+                Shape::Cylinder { height_ly, .. } => {
+                    (Setting::CylinderHeight, ly_text(&[height_ly]))
+                }
             };
             return Err(Error::invalid(
-                option,
+                &name(setting),
                 value,
                 format!("the volume must lie within {limit} ly of the origin on every axis"),
             ));
@@ -331,7 +340,7 @@ impl SectorSpec {
         for (&c, &h_i) in self.centre_ly.iter().zip(h.iter()) {
             if !c.is_finite() || c.abs() + h_i > limit {
                 return Err(Error::invalid(
-                    "--centre",
+                    &name(Setting::Centre),
                     ly_text(&self.centre_ly),
                     format!("the volume must lie within {limit} ly of the origin on every axis"),
                 ));
@@ -340,7 +349,7 @@ impl SectorSpec {
         let d = self.density_per_ly3;
         if !(d.is_finite() && d > 0.0 && d <= MAX_DENSITY_PER_LY3) {
             return Err(Error::invalid(
-                "--density",
+                &name(Setting::Density),
                 d,
                 format!(
                     "it must be a positive number of stars per cubic light year, at most {MAX_DENSITY_PER_LY3}"
@@ -351,7 +360,7 @@ impl SectorSpec {
             && !(thick_share.is_finite() && (0.0..=1.0).contains(&thick_share))
         {
             return Err(Error::invalid(
-                "--thick-share",
+                &name(Setting::ThickShare),
                 thick_share,
                 "it must be a number from 0 to 1",
             ));
@@ -364,19 +373,137 @@ impl SectorSpec {
             && b <= crate::units::UNIVERSE_AGE_GYR)
         {
             return Err(Error::invalid(
-                "--ages",
+                &name(Setting::Ages),
                 format!("{a},{b}"),
                 "it must be MIN,MAX in gigayears with 0 <= MIN < MAX <= 13.8",
             ));
         }
         if !(self.pin_clear_ly.is_finite() && self.pin_clear_ly >= 0.0) {
             return Err(Error::invalid(
-                "--pin-clear",
+                &name(Setting::PinClear),
                 self.pin_clear_ly,
                 "it must be a length of zero or more",
             ));
         }
         Ok(())
+    }
+}
+
+/// A setting of a spec that can hold a bad value. An error names it by its
+/// command-line flag or, when a spec file holds the value, by the file,
+/// the line and the key.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+#[non_exhaustive]
+pub enum Setting {
+    /// The shape's kind (`shape.kind`).
+    ShapeKind,
+    /// A box's edge lengths (`--box`, `shape.size_ly`).
+    BoxSize,
+    /// A sphere's radius (`--sphere`, `shape.radius_ly`).
+    SphereRadius,
+    /// A cylinder's radius (`--cylinder`, `shape.radius_ly`).
+    CylinderRadius,
+    /// A cylinder's height (`--cylinder`, `shape.height_ly`).
+    CylinderHeight,
+    /// The centre (`--centre`, `centre_ly`).
+    Centre,
+    /// The density (`--density`, `density`).
+    Density,
+    /// The density model (`--disk`, `density_model`).
+    DensityModel,
+    /// The thick-disk share (`--thick-share`, `thick_share`).
+    ThickShare,
+    /// The initial mass function (`--imf`, `imf`).
+    Imf,
+    /// The age range (`--ages`, `ages_gyr`).
+    Ages,
+    /// The physics fidelity (`--physics`, `physics`).
+    Physics,
+    /// The pin file (`--pin`, `pin`).
+    Pin,
+    /// The clearing radius around pins (`--pin-clear`, `pin_clear_ly`).
+    PinClear,
+    /// The shard (`--shard`, `shard`).
+    Shard,
+}
+
+impl Setting {
+    /// The command-line flag that sets it; the spec-file key for a setting
+    /// whose flag cannot hold a bad value.
+    pub fn flag(self) -> &'static str {
+        match self {
+            Setting::ShapeKind => "shape.kind",
+            Setting::BoxSize => "--box",
+            Setting::SphereRadius => "--sphere",
+            Setting::CylinderRadius | Setting::CylinderHeight => "--cylinder",
+            Setting::Centre => "--centre",
+            Setting::Density => "--density",
+            Setting::DensityModel => "density_model",
+            Setting::ThickShare => "--thick-share",
+            Setting::Imf => "--imf",
+            Setting::Ages => "--ages",
+            Setting::Physics => "--physics",
+            Setting::Pin => "--pin",
+            Setting::PinClear => "--pin-clear",
+            Setting::Shard => "--shard",
+        }
+    }
+
+    /// Its key in a spec file, dotted below a table (`shape.radius_ly`).
+    pub fn key(self) -> &'static str {
+        match self {
+            Setting::ShapeKind => "shape.kind",
+            Setting::BoxSize => "shape.size_ly",
+            Setting::SphereRadius | Setting::CylinderRadius => "shape.radius_ly",
+            Setting::CylinderHeight => "shape.height_ly",
+            Setting::Centre => "centre_ly",
+            Setting::Density => "density",
+            Setting::DensityModel => "density_model",
+            Setting::ThickShare => "thick_share",
+            Setting::Imf => "imf",
+            Setting::Ages => "ages_gyr",
+            Setting::Physics => "physics",
+            Setting::Pin => "pin",
+            Setting::PinClear => "pin_clear_ly",
+            Setting::Shard => "shard",
+        }
+    }
+}
+
+/// Where a spec file's keys sit: the file and the line of each key
+/// (dotted below a table, `shape.radius_ly`), so that an error in a value
+/// the file holds can name the file, the line and the key.
+#[derive(Debug, Clone, Default, PartialEq)]
+struct KeyLines {
+    path: PathBuf,
+    lines: std::collections::BTreeMap<String, usize>,
+}
+
+impl KeyLines {
+    /// Finds the line of every key of `text`, already known to be valid TOML.
+    fn find(text: &str, path: &Path) -> KeyLines {
+        let mut key_lines = KeyLines {
+            path: path.to_path_buf(),
+            lines: Default::default(),
+        };
+        let line_of = |offset: usize| text[..offset.min(text.len())].matches('\n').count() + 1;
+        let Ok(document) = toml::de::DeTable::parse(text) else {
+            return key_lines;
+        };
+        for (key, value) in document.get_ref().iter() {
+            key_lines
+                .lines
+                .insert(key.get_ref().to_string(), line_of(key.span().start));
+            if let toml::de::DeValue::Table(table) = value.get_ref() {
+                for (inner, _) in table.iter() {
+                    key_lines.lines.insert(
+                        format!("{}.{}", key.get_ref(), inner.get_ref()),
+                        line_of(inner.span().start),
+                    );
+                }
+            }
+        }
+        key_lines
     }
 }
 
@@ -602,6 +729,9 @@ pub struct SpecFile {
     /// The volume.
     #[serde(skip_serializing_if = "Option::is_none")]
     pub shape: Option<ShapeFile>,
+    /// Where each key read from a file sits; keys set by flags have none.
+    #[serde(skip)]
+    key_lines: Option<KeyLines>,
 }
 
 impl SpecFile {
@@ -616,7 +746,7 @@ impl SpecFile {
 
     /// Parses spec-file text; `path` is used in error messages.
     pub fn parse(text: &str, path: &Path) -> Result<SpecFile> {
-        toml::from_str(text).map_err(|e| {
+        let mut file: SpecFile = toml::from_str(text).map_err(|e| {
             let line = e
                 .span()
                 .map(|s| text[..s.start.min(text.len())].matches('\n').count() + 1);
@@ -628,7 +758,116 @@ impl SpecFile {
                     None => msg,
                 },
             }
-        })
+        })?;
+        file.key_lines = Some(KeyLines::find(text, path));
+        Ok(file)
+    }
+
+    /// Replaces every setting that `flags` holds (those typed on the
+    /// command line), so that errors in them name the flag, not this file.
+    /// A shape in `flags` replaces this file's whole shape table.
+    pub fn override_with(&mut self, flags: SpecFile) {
+        let SpecFile {
+            starloom_version,
+            title,
+            seed,
+            centre_ly,
+            density,
+            density_model,
+            thick_share,
+            imf,
+            ages_gyr,
+            keep_remnants,
+            physics,
+            home,
+            pin,
+            pin_fnv1a,
+            pin_clear_ly,
+            shard,
+            shape,
+            key_lines: _,
+        } = flags;
+        let mut forget = |key: &str| {
+            if let Some(key_lines) = &mut self.key_lines {
+                let table = format!("{key}.");
+                key_lines
+                    .lines
+                    .retain(|k, _| k != key && !k.starts_with(&table));
+            }
+        };
+        fn put<T>(slot: &mut Option<T>, value: Option<T>, key: &str, forget: &mut dyn FnMut(&str)) {
+            if value.is_some() {
+                *slot = value;
+                forget(key);
+            }
+        }
+        put(
+            &mut self.starloom_version,
+            starloom_version,
+            "starloom_version",
+            &mut forget,
+        );
+        put(&mut self.title, title, "title", &mut forget);
+        put(&mut self.seed, seed, "seed", &mut forget);
+        put(&mut self.centre_ly, centre_ly, "centre_ly", &mut forget);
+        put(&mut self.density, density, "density", &mut forget);
+        put(
+            &mut self.density_model,
+            density_model,
+            "density_model",
+            &mut forget,
+        );
+        put(
+            &mut self.thick_share,
+            thick_share,
+            "thick_share",
+            &mut forget,
+        );
+        put(&mut self.imf, imf, "imf", &mut forget);
+        put(&mut self.ages_gyr, ages_gyr, "ages_gyr", &mut forget);
+        put(
+            &mut self.keep_remnants,
+            keep_remnants,
+            "keep_remnants",
+            &mut forget,
+        );
+        put(&mut self.physics, physics, "physics", &mut forget);
+        put(&mut self.home, home, "home", &mut forget);
+        // A pin file typed on the command line is read as it is now: the
+        // file's recorded hash belongs to the file's own pin.
+        if pin.is_some() {
+            self.pin_fnv1a = None;
+        }
+        put(&mut self.pin, pin, "pin", &mut forget);
+        put(&mut self.pin_fnv1a, pin_fnv1a, "pin_fnv1a", &mut forget);
+        put(
+            &mut self.pin_clear_ly,
+            pin_clear_ly,
+            "pin_clear_ly",
+            &mut forget,
+        );
+        put(&mut self.shard, shard, "shard", &mut forget);
+        put(&mut self.shape, shape, "shape", &mut forget);
+    }
+
+    /// The file and line a key was read from (`path, line 19`), if it was.
+    fn place(&self, key: &str) -> Option<String> {
+        let key_lines = self.key_lines.as_ref()?;
+        let line = key_lines.lines.get(key)?;
+        Some(format!("{}, line {line}", key_lines.path.display()))
+    }
+
+    /// How an error names `setting`: the file, line and key when this file
+    /// holds its value (`s.toml, line 19: radius_ly`), else its flag.
+    pub fn label(&self, setting: Setting) -> String {
+        let key = setting.key();
+        match self.place(key) {
+            Some(place) => {
+                let leaf = key.rsplit('.').next().unwrap_or(key);
+                format!("{place}: {leaf}")
+            }
+            None => setting.flag().to_string(),
+        }
     }
 
     /// Resolves the file into a spec. `seed` is used when the file has none;
@@ -640,19 +879,19 @@ impl SpecFile {
                     "give a volume: exactly one of --box X,Y,Z, --sphere R or --cylinder R,H (or a [shape] table in --spec)".into(),
                 ));
             }
-            Some(s) => resolve_shape(s)?,
+            Some(s) => self.resolve_shape(s)?,
         };
         let centre = match &self.centre_ly {
             None => [0.0; 3],
             Some(v) => {
                 let text: Vec<String> = v.iter().map(NumberOrText::as_text).collect();
-                parse_centre("--centre", &text.join(","))?
+                parse_centre(&self.label(Setting::Centre), &text.join(","))?
             }
         };
         let mut spec = SectorSpec::new(self.seed.unwrap_or(default_seed), shape, centre);
         spec.title = self.title.clone();
         if let Some(d) = &self.density {
-            spec.density_per_ly3 = parse_density("--density", &d.as_text())?;
+            spec.density_per_ly3 = parse_density(&self.label(Setting::Density), &d.as_text())?;
         }
         let thick_share = self.thick_share.unwrap_or(DEFAULT_THICK_SHARE);
         spec.density_model = match self.density_model.as_deref().unwrap_or("uniform") {
@@ -660,7 +899,7 @@ impl SpecFile {
             "disk" | "disc" => DensityModel::Disk { thick_share },
             other => {
                 return Err(Error::invalid(
-                    "density_model",
+                    &self.label(Setting::DensityModel),
                     other,
                     "it must be 'uniform' or 'disk'",
                 ));
@@ -668,13 +907,17 @@ impl SpecFile {
         };
         if let Some(imf) = &self.imf {
             spec.population.imf = ImfChoice::parse(imf).ok_or_else(|| {
-                Error::invalid("--imf", imf, "it must be kirkpatrick, kroupa or chabrier")
+                Error::invalid(
+                    &self.label(Setting::Imf),
+                    imf,
+                    "it must be kirkpatrick, kroupa or chabrier",
+                )
             })?;
         }
         if let Some(ages) = &self.ages_gyr {
             if ages.len() != 2 {
                 return Err(Error::invalid(
-                    "--ages",
+                    &self.label(Setting::Ages),
                     format!("{ages:?}"),
                     "it must be MIN,MAX in gigayears",
                 ));
@@ -683,14 +926,19 @@ impl SpecFile {
         }
         spec.population.keep_remnants = self.keep_remnants.unwrap_or(false);
         if let Some(p) = &self.physics {
-            spec.population.fidelity = Fidelity::parse(p)
-                .ok_or_else(|| Error::invalid("--physics", p, "it must be 'fitted' or 'rules'"))?;
+            spec.population.fidelity = Fidelity::parse(p).ok_or_else(|| {
+                Error::invalid(
+                    &self.label(Setting::Physics),
+                    p,
+                    "it must be 'fitted' or 'rules'",
+                )
+            })?;
         }
         spec.home = self.home.unwrap_or(false);
         if let Some(c) = &self.pin_clear_ly {
             spec.pin_clear_ly = match c {
                 NumberOrText::Number(v) => *v,
-                NumberOrText::Text(t) => parse_length_ly("--pin-clear", t)?,
+                NumberOrText::Text(t) => parse_length_ly(&self.label(Setting::PinClear), t)?,
             };
         }
         if let Some(pin) = &self.pin {
@@ -700,10 +948,72 @@ impl SpecFile {
             } else {
                 base.join(p)
             };
-            load_pins(&mut spec, path, self.pin_fnv1a.as_deref())?;
+            match load_pins(&mut spec, path.clone(), self.pin_fnv1a.as_deref()) {
+                Err(Error::MissingInput { message, .. }) if self.place("pin").is_some() => {
+                    return Err(Error::invalid(
+                        &self.label(Setting::Pin),
+                        pin,
+                        format!(
+                            "it must name a readable CSV of pinned systems (cannot read {}: {message})",
+                            path.display()
+                        ),
+                    ));
+                }
+                loaded => loaded?,
+            }
         }
-        spec.validate()?;
+        spec.validate_named(&|setting| self.label(setting))?;
         Ok(spec)
+    }
+
+    fn resolve_shape(&self, s: &ShapeFile) -> Result<Shape> {
+        let len = |setting: Setting, v: &Option<NumberOrText>| -> Result<f64> {
+            match v {
+                None => {
+                    let key = setting.key().trim_start_matches("shape.");
+                    let need = format!("the {} shape needs '{key}'", s.kind);
+                    Err(Error::Usage(match self.place("shape") {
+                        Some(place) => format!("{place}: {need}"),
+                        None => need,
+                    }))
+                }
+                Some(NumberOrText::Number(x)) if x.is_finite() && *x > 0.0 => Ok(*x),
+                Some(other) => parse_length_ly(&self.label(setting), &other.as_text()),
+            }
+        };
+        match s.kind.as_str() {
+            "box" => {
+                let v = s.size_ly.as_ref().ok_or_else(|| {
+                    let need = "the box shape needs 'size_ly = [X, Y, Z]'";
+                    Error::Usage(match self.place("shape") {
+                        Some(place) => format!("{place}: {need}"),
+                        None => need.into(),
+                    })
+                })?;
+                let text: Vec<String> = v.iter().map(NumberOrText::as_text).collect();
+                let l = parse_length_list(
+                    &self.label(Setting::BoxSize),
+                    &text.join(","),
+                    3,
+                    "three full edge lengths X,Y,Z in light years (e.g. 100,100,50 or 30pc,30pc,10pc)",
+                )?;
+                Ok(Shape::Box {
+                    size_ly: [l[0], l[1], l[2]],
+                })
+            }
+            "sphere" => Ok(Shape::Sphere {
+                radius_ly: len(Setting::SphereRadius, &s.radius_ly)?,
+            }),
+            "cylinder" => Ok(Shape::Cylinder {
+                radius_ly: len(Setting::CylinderRadius, &s.radius_ly)?,
+                height_ly: len(Setting::CylinderHeight, &s.height_ly)?,
+            }),
+            other => Err(Error::invalid(
+                &self.label(Setting::ShapeKind),
+                other,
+                "it must be 'box', 'sphere' or 'cylinder'",
+            )),
+        }
     }
 }
 
@@ -775,46 +1085,6 @@ fn normalise(path: &Path) -> PathBuf {
     out
 }
 
-fn resolve_shape(s: &ShapeFile) -> Result<Shape> {
-    let len = |opt: &str, v: &Option<NumberOrText>| -> Result<f64> {
-        match v {
-            None => Err(Error::Usage(format!("the {} shape needs '{opt}'", s.kind))),
-            Some(NumberOrText::Number(x)) if x.is_finite() && *x > 0.0 => Ok(*x),
-            Some(other) => parse_length_ly(&format!("--{}", s.kind), &other.as_text()),
-        }
-    };
-    match s.kind.as_str() {
-        "box" => {
-            let v = s
-                .size_ly
-                .as_ref()
-                .ok_or_else(|| Error::Usage("the box shape needs 'size_ly = [X, Y, Z]'".into()))?;
-            let text: Vec<String> = v.iter().map(NumberOrText::as_text).collect();
-            let l = parse_length_list(
-                "--box",
-                &text.join(","),
-                3,
-                "three full edge lengths X,Y,Z in light years (e.g. 100,100,50 or 30pc,30pc,10pc)",
-            )?;
-            Ok(Shape::Box {
-                size_ly: [l[0], l[1], l[2]],
-            })
-        }
-        "sphere" => Ok(Shape::Sphere {
-            radius_ly: len("radius_ly", &s.radius_ly)?,
-        }),
-        "cylinder" => Ok(Shape::Cylinder {
-            radius_ly: len("radius_ly", &s.radius_ly)?,
-            height_ly: len("height_ly", &s.height_ly)?,
-        }),
-        other => Err(Error::invalid(
-            "shape.kind",
-            other,
-            "it must be 'box', 'sphere' or 'cylinder'",
-        )),
-    }
-}
-
 /// The sidecar form of a resolved spec (every key filled in), for
 /// `populate --spec PATH.toml` to regenerate the same catalogue; `sidecar`
 /// is where it will be written (a pin file in its folder is named
@@ -875,6 +1145,7 @@ pub fn to_spec_file(spec: &SectorSpec, shard: Option<(u64, u64)>, sidecar: &Path
         pin_clear_ly: Some(NumberOrText::Number(spec.pin_clear_ly)),
         shard: shard.map(|(k, n)| format!("{k}/{n}")),
         shape: Some(shape),
+        key_lines: None,
     }
 }
 

@@ -82,11 +82,12 @@ pub struct PopulateArgs {
     pub force: bool,
 }
 
-/// Parses `--shard K/N` (also the sidecar's `shard`).
-pub(crate) fn parse_shard(text: &str) -> crate::Result<Shard> {
+/// Parses `--shard K/N` (also the sidecar's `shard`); `option` names the
+/// flag or the file key in an error.
+pub(crate) fn parse_shard(option: &str, text: &str) -> crate::Result<Shard> {
     let bad = || {
         Error::invalid(
-            "--shard",
+            option,
             text,
             "it must be K/N with whole numbers 1 <= K <= N (e.g. 2/8)",
         )
@@ -100,12 +101,41 @@ pub(crate) fn parse_shard(text: &str) -> crate::Result<Shard> {
     Ok(Shard { index: k, count: n })
 }
 
-/// Builds the spec from the file (if any) and the flags.
+/// Builds the spec from the file (if any) and the flags. Flag values are
+/// checked here and name their flag; the file's own values are checked by
+/// [`SpecFile::resolve`] and name the file, line and key.
 pub fn build_spec(args: &PopulateArgs) -> crate::Result<(spec::SectorSpec, Option<Shard>, bool)> {
     let mut file = match &args.spec {
         Some(p) => SpecFile::read(p)?,
         None => SpecFile::default(),
     };
+    let flags = flag_settings(args)?;
+    file.override_with(flags);
+    let mut base = PathBuf::new();
+    if args.pin.is_none()
+        && let Some(sp) = &args.spec
+    {
+        base = sp.parent().map(Path::to_path_buf).unwrap_or(base);
+    }
+    let shard = match (&args.shard, &file.shard) {
+        (Some(s), _) => Some(parse_shard("--shard", s)?),
+        (None, Some(s)) => Some(parse_shard(&file.label(spec::Setting::Shard), s)?),
+        _ => None,
+    };
+    let drew_seed = file.seed.is_none();
+    let fresh = std::time::SystemTime::now()
+        .duration_since(std::time::UNIX_EPOCH)
+        .map(|d| crate::seed::mix64(d.as_nanos() as u64))
+        .unwrap_or(0)
+        % 1_000_000_000;
+    let spec = file.resolve(fresh, &base)?;
+    Ok((spec, shard, drew_seed))
+}
+
+/// The settings typed on the command line, as a spec-file layer that
+/// overrides the file; each value that can be checked alone is checked.
+fn flag_settings(args: &PopulateArgs) -> crate::Result<SpecFile> {
+    let mut file = SpecFile::default();
     let shapes = [&args.box_size, &args.sphere, &args.cylinder]
         .iter()
         .filter(|s| s.is_some())
@@ -213,12 +243,8 @@ pub fn build_spec(args: &PopulateArgs) -> crate::Result<(spec::SectorSpec, Optio
     if let Some(t) = &args.title {
         file.title = Some(t.clone());
     }
-    let mut base = PathBuf::new();
     if let Some(p) = &args.pin {
         file.pin = Some(p.display().to_string());
-        file.pin_fnv1a = None;
-    } else if let Some(sp) = &args.spec {
-        base = sp.parent().map(Path::to_path_buf).unwrap_or(base);
     }
     if let Some(c) = &args.pin_clear {
         let v = c.trim();
@@ -229,19 +255,7 @@ pub fn build_spec(args: &PopulateArgs) -> crate::Result<(spec::SectorSpec, Optio
         };
         file.pin_clear_ly = Some(NumberOrText::Number(ly));
     }
-    let shard = match (&args.shard, &file.shard) {
-        (Some(s), _) => Some(parse_shard(s)?),
-        (None, Some(s)) => Some(parse_shard(s)?),
-        _ => None,
-    };
-    let drew_seed = file.seed.is_none();
-    let fresh = std::time::SystemTime::now()
-        .duration_since(std::time::UNIX_EPOCH)
-        .map(|d| crate::seed::mix64(d.as_nanos() as u64))
-        .unwrap_or(0)
-        % 1_000_000_000;
-    let spec = file.resolve(fresh, &base)?;
-    Ok((spec, shard, drew_seed))
+    Ok(file)
 }
 
 /// Runs `starloom populate --real`: the real neighbourhood in memory, then

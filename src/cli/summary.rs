@@ -65,13 +65,11 @@ pub fn run(args: SummaryArgs) -> anyhow::Result<ExitCode> {
             let shard = f
                 .shard
                 .as_deref()
-                .and_then(|t| super::populate::parse_shard(t).ok());
+                .and_then(|t| super::populate::parse_shard("shard", t).ok());
             // Pins do not change the volume, and the pin file may have moved.
-            let volume_only = crate::spec::SpecFile {
-                pin: None,
-                pin_fnv1a: None,
-                ..f
-            };
+            let mut volume_only = f;
+            volume_only.pin = None;
+            volume_only.pin_fnv1a = None;
             let spec = volume_only.resolve(0, std::path::Path::new("/")).ok()?;
             Some(crate::sampler::shard_volume_ly3(&spec, shard))
         });

@@ -387,7 +387,11 @@ fn sector_bad_input_gets_one_sentence_and_exit_code_two() {
         "seed = 4\n[shape]\nkind = \"sphere\"\nradius_ly = -2\n",
     )
     .unwrap();
-    refused(&dir, &with(&["--spec", "neg.toml"]), "--sphere");
+    refused(
+        &dir,
+        &with(&["--spec", "neg.toml"]),
+        "neg.toml, line 4: radius_ly got '-2'",
+    );
     refused(&dir, &with(&["--spec", "missing.toml"]), "missing.toml");
     // Missing output folder.
     let out = starloom(
