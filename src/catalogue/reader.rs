@@ -1457,7 +1457,13 @@ fn read_partial(path: &Path, wanted: Columns) -> Result<Partial> {
         .extension()
         .and_then(|e| e.to_str())
         .is_some_and(|e| e.eq_ignore_ascii_case("jsonl") || e.eq_ignore_ascii_case("ndjson"));
-    let partial = if is_jsonl {
+    let empty_from_populate = std::fs::metadata(path).is_ok_and(|m| m.is_file() && m.len() == 0)
+        && crate::spec::sidecar_path(path).is_file();
+    let partial = if empty_from_populate {
+        // `populate` writes a 0-byte file for a shard after the first
+        // that holds no stars: an empty catalogue, as its sidecar shows.
+        Partial::new(wanted)
+    } else if is_jsonl {
         let bytes = read_bytes_parallel(path).map_err(missing)?;
         let text = std::str::from_utf8(&bytes).map_err(|e| not_utf8(path, e.valid_up_to()))?;
         read_jsonl(path, text)?
@@ -1563,6 +1569,18 @@ fn parse_header(
         .split(',')
         .map(|n| n.trim().trim_matches('"').to_string())
         .collect();
+    if names[0].parse::<f64>().is_ok() {
+        // A number is no column name: the first line is a data row.
+        let shard_hint = if names.len() == super::csv_format::COLUMNS.len() {
+            "; it looks like a shard after the first (those have no header row), so prepend the first shard's header line"
+        } else {
+            "; add a header row such as name,x_ly,y_ly,z_ly"
+        };
+        return Err(Error::BadFile {
+            path: path.to_path_buf(),
+            message: format!("the file has no header row: its first line is data{shard_hint}"),
+        });
+    }
     let layout = make_layout(path, names, wanted)?;
     Ok(Some((layout, bom, (header_end + 1).min(bytes.len()))))
 }
@@ -1973,12 +1991,8 @@ fn read_jsonl(path: &Path, text: &str) -> Result<Partial> {
             message,
         })?;
     }
-    if layout.is_none() {
-        return Err(Error::BadFile {
-            path: path.to_path_buf(),
-            message: "the file holds no JSON objects".into(),
-        });
-    }
+    // No objects at all is an empty catalogue (an empty shard, or a volume
+    // too small to hold a star), not an error.
     Ok(out)
 }
 

@@ -71,7 +71,9 @@ pub struct PopulateArgs {
     /// Radius cleared of generated systems around each pin (default 3ly).
     #[arg(long, allow_hyphen_values = true)]
     pub pin_clear: Option<String>,
-    /// Write only slice K of N of the cells (K from 1).
+    /// Write only slice K of N of the cells (K from 1). The N files
+    /// concatenated equal the single-run file, so only shard 1 has the CSV
+    /// header row; prepend its first line to read a later shard on its own.
     #[arg(long, allow_hyphen_values = true)]
     pub shard: Option<String>,
     /// Output catalogue: .csv or .jsonl.

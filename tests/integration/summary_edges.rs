@@ -1,7 +1,7 @@
 //! `summary` on a shard's catalogue (density over the shard's part of the
 //! volume) and on an empty sector (zeros, never NaN).
 
-use crate::util::{starloom_ok, stdout, work_dir};
+use crate::util::{assert_user_error, read_bytes, starloom, starloom_ok, stdout, work_dir};
 use starloom::sampler::{Shard, shard_volume_ly3};
 use starloom::spec::{SectorSpec, Shape};
 
@@ -80,4 +80,84 @@ fn an_empty_sector_summarises_to_zeros_without_nan() {
         assert!(!text.to_lowercase().contains("nan"), "{text}");
         assert!(!text.contains("inf"), "{text}");
     }
+}
+
+#[test]
+fn empty_results_read_back_as_empty_catalogues() {
+    let dir = work_dir("summary_empty_results");
+    // Shard 50 of 64 of a 5 ly sphere holds no cells: a 0-byte file.
+    starloom_ok(
+        &dir,
+        &[
+            "populate", "--sphere", "5", "--seed", "9", "--shard", "50/64", "--out", "e.csv",
+        ],
+    );
+    assert!(read_bytes(&dir, "e.csv").is_empty());
+    // A 0.5 pc sphere with seed 1 holds no stars: JSONL with no objects.
+    starloom_ok(
+        &dir,
+        &[
+            "populate", "--sphere", ".5pc", "--seed", "1", "--out", "u.jsonl",
+        ],
+    );
+    for file in ["e.csv", "u.jsonl"] {
+        assert_eq!(json(&dir, file)["objects"].as_u64(), Some(0), "{file}");
+        let text = stdout(&starloom_ok(&dir, &["summary", file]));
+        assert!(text.starts_with("0 objects: 0 stars"), "{file}: {text}");
+        // A map of nothing is an empty sheet; routes find no systems.
+        starloom_ok(&dir, &["map", file, "--out", &format!("{file}.png")]);
+        let text = stdout(&starloom_ok(&dir, &["routes", file, "--jump", "5"]));
+        assert!(text.contains("0 systems"), "{file}: {text}");
+        let out = starloom(
+            &dir,
+            &["routes", file, "--jump", "5", "--from", "1", "--to", "2"],
+        );
+        assert_user_error(&out, "not in the catalogue");
+    }
+    // A 0-byte file that populate did not write (no sidecar) still needs a header.
+    std::fs::write(dir.join("blank.csv"), "").unwrap();
+    assert_user_error(&starloom(&dir, &["summary", "blank.csv"]), "empty");
+}
+
+#[test]
+fn a_later_shard_without_its_header_gets_a_clear_message() {
+    let dir = work_dir("summary_headerless_shard");
+    for k in ["1/2", "2/2"] {
+        let out = format!("s{}.csv", &k[..1]);
+        starloom_ok(
+            &dir,
+            &[
+                "populate", "--sphere", "30", "--seed", "9", "--shard", k, "--out", &out,
+            ],
+        );
+    }
+    let out = starloom(&dir, &["summary", "s2.csv"]);
+    assert_user_error(&out, "s2.csv: the file has no header row");
+    assert_user_error(&out, "prepend the first shard's header line");
+    // Prepending shard 1's header line makes it readable.
+    let first = read_bytes(&dir, "s1.csv");
+    let header_end = first.iter().position(|&b| b == b'\n').unwrap() + 1;
+    let mut whole = first[..header_end].to_vec();
+    whole.extend_from_slice(&read_bytes(&dir, "s2.csv"));
+    std::fs::write(dir.join("s2-whole.csv"), whole).unwrap();
+    let text = stdout(&starloom_ok(&dir, &["summary", "s2-whole.csv"]));
+    assert!(!text.starts_with("0 objects"), "{text}");
+    // A user's file of bare numbers is told to add a header.
+    std::fs::write(dir.join("n.csv"), "1,2,3\n").unwrap();
+    assert_user_error(
+        &starloom(&dir, &["summary", "n.csv"]),
+        "no header row: its first line is data; add a header row",
+    );
+}
+
+#[test]
+fn populate_help_says_later_shards_have_no_header() {
+    let dir = work_dir("populate_help_shard");
+    let text = stdout(&starloom_ok(&dir, &["populate", "--help"]));
+    // Help text wraps at the terminal's width: compare words only.
+    let words = text.split_whitespace().collect::<Vec<_>>().join(" ");
+    assert!(
+        words.contains("only shard 1 has the CSV header row"),
+        "{text}"
+    );
 }
