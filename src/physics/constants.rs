@@ -28,6 +28,8 @@ pub const G_SI: f64 = 6.674_30e-11;
 
 /// Solar radius in kilometres.
 pub const R_SUN_KM: f64 = R_SUN_M / 1000.0;
+/// Nominal solar radii in one astronomical unit (≈ 215.03; IAU 2012 B2 au).
+pub const R_SUN_PER_AU: f64 = crate::units::METRES_PER_AU / R_SUN_M;
 /// Earth radii in one solar radius.
 pub const R_EARTH_PER_R_SUN: f64 = R_SUN_M / R_EARTH_M;
 /// Jupiter radii in one solar radius.

@@ -325,6 +325,31 @@ impl Track {
         self.r_white_dwarf
     }
 
+    /// The largest radius the star reaches before it becomes a remnant,
+    /// Rsun: the larger of the giant-branch tip and the asymptotic-giant
+    /// (or, above M_ec, pre-collapse supergiant) tip, never below the
+    /// end-of-main-sequence and base-of-giant-branch radii.
+    ///
+    /// The stage radii are those of [`Track::state_at`], so this is the
+    /// maximum over the track up to the numerical noise of the phase ends
+    /// (R only grows within each phase; core helium burning is smaller
+    /// than the giant-branch tip or equal to it).
+    pub fn largest_radius_rsun(&self) -> f64 {
+        let mass_after_gb = self.mass_msun - self.rgb_loss;
+        let gb_tip = giant_radius_rsun(self.l_hei, mass_after_gb).max(self.r_bgb);
+        let agb_mass = if self.white_dwarf_progenitor {
+            self.mc_final
+        } else {
+            mass_after_gb
+        };
+        let agb_tip = giant_radius_rsun(self.l_agb_tip, agb_mass);
+        self.r_tms
+            .max(self.r_bgb)
+            .max(gb_tip)
+            .max(self.r_che)
+            .max(agb_tip)
+    }
+
     /// The kind reported for a burning post-main-sequence stage.
     fn evolved(&self, kind: StarKind) -> StarKind {
         if self.mass_msun > SUPERGIANT_MIN_INITIAL_MSUN {
@@ -863,6 +888,27 @@ mod tests {
             }
         }
         assert!(worst < 1e-14, "{worst}");
+    }
+
+    #[test]
+    fn largest_radius_bounds_the_whole_track() {
+        // Self-consistency (common practice, no source): no age on the track
+        // gives a larger radius than `largest_radius_rsun`, and the largest
+        // radius is reached (within 1 %) at some sampled age.
+        let th = RemnantThresholds::default();
+        for m in [0.8, 1.0, 1.5, 2.5, 5.05, 7.5, 9.0, 15.0, 40.0] {
+            let t = Track::new(m, &th);
+            let top = t.largest_radius_rsun();
+            let mut seen: f64 = 0.0;
+            let n = 20_000;
+            for i in 0..=n {
+                let age = t.t_ms_gyr + (t.t_end_gyr - t.t_ms_gyr) * i as f64 / n as f64;
+                let b = t.state_at(age.min(t.t_end_gyr * (1.0 - 1e-12)), &th);
+                assert!(b.radius_rsun <= top * (1.0 + 1e-9), "{m} at {age}");
+                seen = seen.max(b.radius_rsun);
+            }
+            assert!(seen > 0.99 * top, "{m}: {seen} of {top}");
+        }
     }
 
     #[test]

@@ -88,6 +88,24 @@ pub fn star_profile_with(
     profile_from_body(&body, fidelity, logs)
 }
 
+/// The largest radius, Rsun, that a star of this initial mass reaches
+/// before it becomes a remnant (the tip of the asymptotic giant branch for
+/// a white-dwarf progenitor), with the default remnant thresholds.
+///
+/// # Allocations
+/// None: one interpolated track of [`track_table`] (`fitted`) or one
+/// power law (`rules`).
+pub fn largest_radius_rsun(initial_mass: SolarMasses, fidelity: Fidelity) -> f64 {
+    let m = initial_mass.get();
+    match fidelity {
+        Fidelity::Fitted => {
+            track_table::track(m.clamp(evolution::HYDROGEN_BURNING_MIN_MSUN, 150.0))
+                .largest_radius_rsun()
+        }
+        Fidelity::Rules => rules::largest_radius_rsun(m),
+    }
+}
+
 /// Adds classification, colour, habitable zone and magnitude to a body.
 #[inline]
 fn profile_from_body(

@@ -104,6 +104,12 @@ pub fn giant(mass: f64, age: f64) -> Body {
     }
 }
 
+/// The largest radius a star of this initial mass reaches before it
+/// becomes a remnant, Rsun: that of its one giant stage.
+pub fn largest_radius_rsun(initial_mass_msun: f64) -> f64 {
+    giant(initial_mass_msun, 0.0).radius_rsun
+}
+
 /// Follows a star of this initial mass to this age by the rules.
 pub fn evolve(initial_mass_msun: f64, age_gyr: f64, thresholds: &RemnantThresholds) -> Body {
     let m = initial_mass_msun;
