@@ -5,7 +5,9 @@
 //! orbits, one age for the whole system, evolves every member through
 //! [`crate::physics::star_profile`] and removes neutron stars and black
 //! holes that natal kicks carried away. White dwarfs, giants and remnants
-//! are not imposed: they follow from mass and age.
+//! are not imposed: they follow from mass and age. Orbits are drawn for
+//! the initial masses and then carried to the present masses
+//! ([`orbit_evolution`]: wind widening, common envelopes, mergers).
 //!
 //! **Architecture invariant:** all random draws of a system come from one
 //! generator seeded by (universe seed, system key), in a fixed order, so a
@@ -13,6 +15,7 @@
 
 pub mod initial_mass_function;
 pub mod multiplicity;
+pub mod orbit_evolution;
 pub mod remnants;
 pub mod star_ages;
 
@@ -21,6 +24,7 @@ use crate::seed::{Stream, rng_for};
 use crate::spec::PopulationModel;
 use crate::units::{Gigayears, SolarMasses};
 use initial_mass_function::{Imf, MIN_MASS_MSUN};
+use orbit_evolution::PresentOrbit;
 use star_ages::AgeModel;
 
 /// Most members a system can have (primary + companions).
@@ -80,19 +84,47 @@ impl Population {
             masses[c] = (q * m1).max(MIN_MASS_MSUN);
             orbits[c] = multiplicity::draw_orbit(m1, masses[c], &mut rng);
         }
+        // Kicks are drawn in slot order for every neutron star and black
+        // hole, whatever happens to the orbits afterwards, so the stream
+        // is the same as when orbits were not evolved.
+        let mut profiles = [None; MAX_MEMBERS];
+        let mut stays = [false; MAX_MEMBERS];
         for slot in 0..=n_comp {
             let profile = self.evolve(masses[slot], age);
-            if !self.model.keep_remnants
-                && matches!(profile.kind, StarKind::NeutronStar | StarKind::BlackHole)
-                && !remnants::stays_after_kick(profile.mass_msun, &mut rng)
-            {
+            stays[slot] = self.model.keep_remnants
+                || !matches!(profile.kind, StarKind::NeutronStar | StarKind::BlackHole)
+                || remnants::stays_after_kick(profile.mass_msun, &mut rng);
+            profiles[slot] = Some(profile);
+        }
+        let Some(primary) = profiles[0] else {
+            return;
+        };
+        for slot in 0..=n_comp {
+            let Some(profile) = profiles[slot].filter(|_| stays[slot]) else {
                 continue;
-            }
+            };
+            let (separation_au, period_days) = if slot == 0 {
+                (0.0, 0.0)
+            } else {
+                match orbit_evolution::present_orbit(
+                    orbits[slot].1,
+                    orbits[slot].0,
+                    &primary,
+                    &profile,
+                    self.model.fidelity,
+                ) {
+                    PresentOrbit::Detached {
+                        separation_au,
+                        period_days,
+                    } => (separation_au, period_days),
+                    PresentOrbit::Merged => continue,
+                }
+            };
             out.push(Member {
                 slot: slot as u8,
                 profile,
-                separation_au: orbits[slot].1,
-                period_days: orbits[slot].0,
+                separation_au,
+                period_days,
             });
         }
     }
@@ -154,4 +186,67 @@ pub struct SystemMeans {
     pub stars: f64,
     /// Members per system (catalogue rows), brown dwarfs counted; at least 0.001.
     pub members: f64,
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn white_dwarf_companions_keep_a_times_total_mass() {
+        // Replays the draws of `draw_system` for the first systems of seed 9
+        // with a white-dwarf primary and a main-sequence companion, and
+        // checks the wind rule a · (M1 + M2) = const (Jeans 1924; from
+        // memory) against the orbit drawn for the initial masses, and
+        // Kepler's third law a³ = (M1 + M2) P² with the present masses
+        // (au, yr, Msun; textbook).
+        let population = Population::new(&PopulationModel::default());
+        let mut members = Vec::with_capacity(MAX_MEMBERS);
+        let mut checked = 0;
+        for key in 0..200_000u64 {
+            population.draw_system(9, key, &mut members);
+            let [primary, companion, ..] = members.as_slice() else {
+                continue;
+            };
+            if primary.slot != 0
+                || companion.slot != 1
+                || primary.profile.kind != StarKind::WhiteDwarf
+                || companion.profile.kind != StarKind::MainSequence
+            {
+                continue;
+            }
+            let mut rng = rng_for(9, key, Stream::System);
+            let m1 = population.imf.sample(&mut rng);
+            let _age = population.ages.sample(&mut rng);
+            let _n = multiplicity::draw_companion_count(m1, &mut rng);
+            let q = multiplicity::draw_mass_ratio(m1, MIN_MASS_MSUN, &mut rng);
+            let m2 = (q * m1).max(MIN_MASS_MSUN);
+            let (_, a_initial) = multiplicity::draw_orbit(m1, m2, &mut rng);
+            assert_eq!(m1, primary.profile.initial_mass_msun);
+            let total = primary.profile.mass_msun + companion.profile.mass_msun;
+            if a_initial * crate::physics::constants::R_SUN_PER_AU
+                < crate::physics::largest_radius_rsun(
+                    SolarMasses::new(m1).unwrap(),
+                    crate::physics::Fidelity::Fitted,
+                )
+            {
+                continue; // A common envelope: another test.
+            }
+            let want = a_initial * (m1 + m2) / total;
+            assert!(
+                (companion.separation_au / want - 1.0).abs() < 1e-12,
+                "key {key}: {} against {want}",
+                companion.separation_au
+            );
+            let p_years = companion.period_days / 365.25;
+            let kepler = companion.separation_au.powi(3) / (total * p_years * p_years);
+            assert!((kepler - 1.0).abs() < 1e-9, "key {key}: {kepler}");
+            assert!(companion.separation_au > a_initial, "key {key}");
+            checked += 1;
+            if checked == 20 {
+                return;
+            }
+        }
+        panic!("only {checked} white-dwarf binaries found");
+    }
 }

@@ -16,6 +16,7 @@ mod routes;
 mod sector_census;
 mod sector_cli;
 mod sector_determinism;
+mod sector_orbits;
 mod sector_pins;
 mod sector_reader;
 mod sector_spec;
