@@ -732,8 +732,10 @@ impl Ctx<'_> {
     fn draw_map(&self, frame: &Frame, crowd: f32, keep_clear: &[Rect], items: &mut Vec<Item>) {
         let layers = &self.opts.layers;
         let rect = frame.map_rect;
+        // Star labels keep off the grid's numbers and axis names.
+        let mut keep_clear = keep_clear.to_vec();
         if layers.grid {
-            self.draw_grid(frame, items);
+            keep_clear.extend(self.draw_grid(frame, items));
         }
         self.draw_links(frame, items);
         // Visible stars: centre inside the map area.
@@ -756,7 +758,7 @@ impl Ctx<'_> {
             })
             .collect();
         let labelled = if layers.labels {
-            self.place_labels(&vis, rect, keep_clear)
+            self.place_labels(&vis, rect, &keep_clear)
         } else {
             Vec::new()
         };
@@ -1192,7 +1194,9 @@ impl Ctx<'_> {
         }
     }
 
-    fn draw_grid(&self, frame: &Frame, items: &mut Vec<Item>) {
+    /// Draws the grid; returns the boxes of the numbers and axis names it
+    /// drew, which star labels keep clear of.
+    fn draw_grid(&self, frame: &Frame, items: &mut Vec<Item>) -> Vec<Rect> {
         let rect = frame.map_rect;
         let s = frame.mm_per_ly;
         let step = nice_ceil(18.0 / s);
@@ -1236,11 +1240,11 @@ impl Ctx<'_> {
             ] {
                 items.push(text(at[0], at[1], name, GRID_PT, muted, true, anchor));
             }
-            return;
+            return texts.boxes;
         }
         // The reference plane z = cz over the stars' x, y extent.
         if self.systems.is_empty() {
-            return;
+            return texts.boxes;
         }
         let x0 = (self.xy_min[0] / step).floor() * step;
         let x1 = (self.xy_max[0] / step).ceil() * step;
@@ -1266,7 +1270,7 @@ impl Ctx<'_> {
         let nx = ((x1 - x0) / step).round() as i64;
         let ny = ((y1 - y0) / step).round() as i64;
         if nx > 400 || ny > 400 {
-            return;
+            return texts.boxes;
         }
         let mut put_text = |p: [f64; 3], s: String, anchor: Anchor, items: &mut Vec<Item>| {
             if let Some(uv) = self.proj.project(p) {
@@ -1294,6 +1298,7 @@ impl Ctx<'_> {
                 items,
             );
         }
+        texts.boxes
     }
 
     /// Where the index sheet names each tile: centred in the tile's outline

@@ -619,3 +619,50 @@ fn a_pinned_system_in_a_crowded_generated_sector_is_labelled() {
     assert!(labelled(&with_pin(Origin::Imported)));
     assert!(!labelled(&with_pin(Origin::Generated)));
 }
+
+#[test]
+fn star_labels_keep_clear_of_the_grid_texts() {
+    // In every view the grid's numbers and axis names are drawn first and
+    // star labels are placed around them (before, oblique and perspective
+    // sheets printed "x -20" over a star's name).
+    let c = long_named_cluster(300);
+    let views = [
+        ViewSpec::Top,
+        ViewSpec::Oblique { tilt_deg: 35.0 },
+        ViewSpec::Perspective {
+            eye_ly: None,
+            look_ly: None,
+        },
+    ];
+    let mut checked = 0;
+    for view in views {
+        let opts = MapOptions {
+            view,
+            labels: starloom::map::LabelMode::All,
+            centre_ly: Some([0.0, 0.0, 0.0]),
+            mm_per_ly: Some(1.5),
+            ..MapOptions::default()
+        };
+        let s = build_sheets(&c, &opts, &Overlay::default()).unwrap();
+        let scene = &s.sheets[0].scene;
+        let grid = grid_text_boxes(scene);
+        assert!(grid.len() >= 2, "{view:?}: grid texts drawn: {}", grid.len());
+        let labels: Vec<(&str, Rect)> = scene
+            .items
+            .iter()
+            .filter_map(text_box)
+            .filter(|(t, _)| t.starts_with("Long-named"))
+            .collect();
+        assert!(labels.len() >= 5, "{view:?}: labels placed: {}", labels.len());
+        for (t, b) in &labels {
+            for (g, gb) in &grid {
+                assert!(
+                    !b.overlaps(gb),
+                    "{view:?}: {t:?} {b:?} over grid text {g:?} {gb:?}"
+                );
+                checked += 1;
+            }
+        }
+    }
+    assert!(checked > 200, "pairs checked: {checked}");
+}
