@@ -11,13 +11,21 @@
 //! becomes the row number (from 1), a missing `system` makes each row its own
 //! system. Title and seed come from the sidecar `PATH.toml` if present.
 //!
+//! A number must be finite, and one no star can have is refused: masses
+//! and radii must be above 0; luminosity, Teff, ages, lifetimes, habitable
+//! zones, distances, separations and periods 0 or more (0 is what starloom
+//! writes for a black hole's light and a single star's orbit). Errors name
+//! the line (the header is line 1), the column and the value.
+//!
 //! # Speed
 //! The file is read into memory, cut into line-aligned chunks and the
 //! chunks are parsed in parallel with hand-split fields and a fast decimal
 //! parser; files with quoted fields go through the `csv` crate instead.
 //! Rows of starloom's own header are decoded in a fixed field order, as
 //! bytes, with no per-column dispatch; any row that decoder cannot take
-//! whole goes to the general one, so both give the same values and errors.
+//! whole goes to the general one, so both give the same values and errors;
+//! a value out of range is one more reason to hand a row over, tested with
+//! two comparisons a value and one branch a row.
 
 use crate::catalogue::NameColumn;
 use crate::catalogue::table::{Catalogue, CatalogueMeta, Origin};
@@ -799,13 +807,23 @@ fn parse_fields<'f>(
     for &(k, col) in &layout.active {
         let s = field(k).trim_ascii();
         let bad = |what: &str| (layout.names[k].clone(), format!("'{s}' is not {what}"));
-        let number = || -> std::result::Result<f64, (String, String)> {
+        // An empty field is NaN, a value the file left out; anything else
+        // must be a number that `allowed` admits.
+        let checked = |(allowed, clause): (Allowed, &str)| {
             if s.is_empty() {
-                Ok(nan)
-            } else {
-                parse_f64(s).ok_or_else(|| bad("a number"))
+                return Ok(nan);
             }
+            let v = parse_f64(s).ok_or_else(|| bad("a number"))?;
+            if !v.is_finite() {
+                return Err(bad("a finite number"));
+            }
+            if !allowed.admits(v) {
+                return Err((layout.names[k].clone(), format!("'{s}' must be {clause}")));
+            }
+            Ok(v)
         };
+        let number = || checked((Allowed::Finite, "a finite number"));
+        let physical = |slot: usize| checked(NUM_ALLOWED[slot]);
         match col {
             Col::Id | Col::System => {
                 if !s.is_empty() {
@@ -828,7 +846,9 @@ fn parse_fields<'f>(
             Col::Zly | Col::Zpc => xyz[2] = number()?,
             Col::Ra => ra = number()?,
             Col::Dec => dec = number()?,
-            Col::DistLy => dist = number()?,
+            Col::DistLy => {
+                dist = checked((Allowed::ZeroOrMore, "a number of light years, 0 or more"))?
+            }
             Col::DistPc => {
                 if !matches!(
                     layout.positions,
@@ -836,7 +856,7 @@ fn parse_fields<'f>(
                         distance_in_pc: false
                     }
                 ) {
-                    dist = number()?
+                    dist = checked((Allowed::ZeroOrMore, "a number of parsecs, 0 or more"))?
                 }
             }
             Col::Kind => {
@@ -858,18 +878,18 @@ fn parse_fields<'f>(
                     class = Some(ClassCode::from_str_lossy(s))
                 }
             }
-            Col::Mass => num[0] = number()?,
-            Col::InitialMass => num[1] = number()?,
-            Col::Radius => num[2] = number()?,
-            Col::Lum => num[3] = number()?,
-            Col::Teff => num[4] = number()?,
-            Col::Age => num[5] = number()?,
-            Col::Lifetime => num[6] = number()?,
-            Col::HzIn => num[7] = number()?,
-            Col::HzOut => num[8] = number()?,
-            Col::AbsMag => num[9] = number()?,
-            Col::Sep => num[10] = number()?,
-            Col::Period => num[11] = number()?,
+            Col::Mass => num[0] = physical(0)?,
+            Col::InitialMass => num[1] = physical(1)?,
+            Col::Radius => num[2] = physical(2)?,
+            Col::Lum => num[3] = physical(3)?,
+            Col::Teff => num[4] = physical(4)?,
+            Col::Age => num[5] = physical(5)?,
+            Col::Lifetime => num[6] = physical(6)?,
+            Col::HzIn => num[7] = physical(7)?,
+            Col::HzOut => num[8] = physical(8)?,
+            Col::AbsMag => num[9] = physical(9)?,
+            Col::Sep => num[10] = physical(10)?,
+            Col::Period => num[11] = physical(11)?,
             Col::Colour => {
                 if !s.is_empty() {
                     colour = Some(parse_hex_colour(s).ok_or_else(|| bad("a colour like #ffcc88"))?);
@@ -959,6 +979,58 @@ struct RowValues<'f> {
     habitable: Option<bool>,
     origin: Origin,
 }
+
+/// The values a numeric column allows besides an empty field: every
+/// value must be finite, and physical quantities have a lower bound.
+#[derive(Clone, Copy)]
+enum Allowed {
+    /// Any finite number (a magnitude, a coordinate).
+    Finite,
+    /// Zero or more: starloom itself writes 0 for the luminosity, Teff and
+    /// habitable zone of a black hole, the lifetime of a brown dwarf, and
+    /// the separation and period of a single star.
+    ZeroOrMore,
+    /// Above zero (masses and radii, which starloom never writes as 0).
+    Positive,
+}
+
+impl Allowed {
+    /// True when `v` is finite and within the bound.
+    ///
+    /// # Speed
+    /// Two comparisons and no branch, so the fixed-order decoder can
+    /// test every value of a row and branch once.
+    #[inline(always)]
+    fn admits(self, v: f64) -> bool {
+        let finite = v.abs() < f64::INFINITY;
+        finite
+            & match self {
+                Allowed::Finite => true,
+                Allowed::ZeroOrMore => v >= 0.0,
+                Allowed::Positive => v > 0.0,
+            }
+    }
+}
+
+/// What each slot of [`RowValues::num`] allows, and that as a clause for
+/// the message of a value outside it.
+const NUM_ALLOWED: [(Allowed, &str); 12] = [
+    (Allowed::Positive, "a positive number of solar masses"),
+    (Allowed::Positive, "a positive number of solar masses"),
+    (Allowed::Positive, "a positive number of solar radii"),
+    (
+        Allowed::ZeroOrMore,
+        "a number of solar luminosities, 0 or more",
+    ),
+    (Allowed::ZeroOrMore, "a number of kelvin, 0 or more"),
+    (Allowed::ZeroOrMore, "a number of gigayears, 0 or more"),
+    (Allowed::ZeroOrMore, "a number of gigayears, 0 or more"),
+    (Allowed::ZeroOrMore, "a number of au, 0 or more"),
+    (Allowed::ZeroOrMore, "a number of au, 0 or more"),
+    (Allowed::Finite, "a finite number"),
+    (Allowed::ZeroOrMore, "a number of au, 0 or more"),
+    (Allowed::ZeroOrMore, "a number of days, 0 or more"),
+];
 
 /// Appends one row's values to the `wanted` columns of `out`, with its
 /// flags of what the file left out.
@@ -1155,10 +1227,18 @@ fn parse_own_fields<'f>(
             *p = number(k).filter(|v| v.is_finite())?;
         }
         let mut num = [f64::NAN; 12];
+        // One flag for the whole row: a value out of range (rare) sends
+        // the row to the general reader, which names it.
+        let mut admitted = true;
         for (k, set, slot) in OWN_NUMBERS {
             if w.contains(set) {
-                num[slot] = number(k)?;
+                let v = number(k)?;
+                admitted &= NUM_ALLOWED[slot].0.admits(v);
+                num[slot] = v;
             }
+        }
+        if !admitted {
+            return None;
         }
         let read = |set: Columns| w.contains(set).then_some(());
         Some(RowValues {
@@ -2847,7 +2927,7 @@ mod tests {
             (11, 22, "yes"),
             (12, 23, "hipparcos\r"),
             (13, 3, "  Padded name "),
-            (14, 12, "nan"),
+            (14, 12, "0.00000000000000001234"),
         ];
         for (row, field, text) in edits {
             let mut f: Vec<String> = lines[row].split(',').map(String::from).collect();
@@ -2889,6 +2969,106 @@ mod tests {
         };
         assert_eq!((a.line_in_chunk, &a.column), (b.line_in_chunk, &b.column));
         assert_eq!(a.column, "colour_hex");
+    }
+
+    #[test]
+    fn out_of_range_values_are_refused_alike_by_every_path() {
+        let text = own_format_csv(400);
+        let header: Vec<&str> = text.lines().next().unwrap().split(',').collect();
+        let (_, body) = text.split_once('\n').unwrap();
+        // Row 300 of the body is line 302 of the file (the header is line 1).
+        let row = 300;
+        let line_start = body.match_indices('\n').nth(row - 1).unwrap().0 + 1;
+        for (column, value, message) in [
+            (
+                "mass_msun",
+                "-0.23",
+                "'-0.23' must be a positive number of solar masses",
+            ),
+            (
+                "initial_mass_msun",
+                "0",
+                "'0' must be a positive number of solar masses",
+            ),
+            (
+                "radius_rsun",
+                "-0",
+                "'-0' must be a positive number of solar radii",
+            ),
+            (
+                "luminosity_lsun",
+                "-2.3142e-5",
+                "'-2.3142e-5' must be a number of solar luminosities, 0 or more",
+            ),
+            (
+                "teff_k",
+                "-3402",
+                "'-3402' must be a number of kelvin, 0 or more",
+            ),
+            (
+                "age_gyr",
+                "-2.7",
+                "'-2.7' must be a number of gigayears, 0 or more",
+            ),
+            (
+                "lifetime_gyr",
+                "-678.2",
+                "'-678.2' must be a number of gigayears, 0 or more",
+            ),
+            (
+                "hz_inner_au",
+                "-0.095",
+                "'-0.095' must be a number of au, 0 or more",
+            ),
+            (
+                "hz_outer_au",
+                "-0.18",
+                "'-0.18' must be a number of au, 0 or more",
+            ),
+            ("abs_mag_v", "inf", "'inf' is not a finite number"),
+            (
+                "separation_au",
+                "-1",
+                "'-1' must be a number of au, 0 or more",
+            ),
+            (
+                "period_days",
+                "-3",
+                "'-3' must be a number of days, 0 or more",
+            ),
+            ("teff_k", "NaN", "'NaN' is not a finite number"),
+            ("x_ly", "-inf", "'-inf' is not a finite number"),
+            ("mass_msun", "1e400", "'1e400' is not a finite number"),
+        ] {
+            let at = header.iter().position(|&h| h == column).unwrap();
+            let line_end = line_start + body[line_start..].find('\n').unwrap();
+            let mut fields: Vec<&str> = body[line_start..line_end].split(',').collect();
+            fields[at] = value;
+            let bad_body = format!(
+                "{}{}{}",
+                &body[..line_start],
+                fields.join(","),
+                &body[line_end..]
+            );
+            let want = (row as u64, column.to_string(), message.to_string());
+            // The fixed-order decoder and the general one, on one chunk.
+            let names: Vec<String> = header.iter().map(|h| h.to_string()).collect();
+            let own = make_layout(Path::new("t.csv"), names.clone(), Columns::ALL).unwrap();
+            let mut general = make_layout(Path::new("t.csv"), names, Columns::ALL).unwrap();
+            general.own_format = false;
+            for layout in [&own, &general] {
+                let e = parse_chunk(layout, &bad_body).err().expect("refused");
+                assert_eq!((e.line_in_chunk, e.column, e.message), want);
+            }
+            // The whole-file read and the streamed read, across pieces.
+            let bad_text = format!("{}\n{bad_body}", header.join(","));
+            let p = temp("range.csv", &bad_text);
+            let want = format!("{}, line 302, column '{column}': {message}", p.display());
+            let whole = read_csv_bytes(&p, bad_text.as_bytes(), Columns::ALL).err();
+            assert_eq!(whole.expect("refused").to_string(), want);
+            let streamed = read_csv_streamed_in(&p, Columns::ALL, 512, 16).err();
+            assert_eq!(streamed.expect("refused").to_string(), want);
+        }
     }
 
     #[test]

@@ -3,6 +3,7 @@
 
 use crate::util::{assert_user_error, starloom, starloom_ok, work_dir};
 use starloom::catalogue::read_catalogue;
+use starloom::physics::StarKind;
 
 /// Two floats equal, NaN equal to NaN (missing values).
 fn same(a: f64, b: f64) -> bool {
@@ -227,4 +228,223 @@ fn sector_reader_errors_name_the_line_and_the_column() {
     let out = starloom(&dir, &["summary", "nopos.csv"]);
     assert_user_error(&out, "nopos.csv");
     assert_user_error(&out, "x_ly");
+}
+
+/// Writes `text` as `file` in `dir` and asserts that the reader refuses
+/// it with `expected`, the whole message after the file's path.
+fn check_refused(dir: &std::path::Path, file: &str, text: &str, expected: &str) {
+    let path = dir.join(file);
+    std::fs::write(&path, text).unwrap();
+    let err = read_catalogue(&path).unwrap_err().to_string();
+    assert_eq!(err, format!("{}, {expected}", path.display()));
+}
+
+#[test]
+fn sector_reader_refuses_values_no_star_can_have() {
+    let dir = work_dir("sector-reader-ranges");
+    // The header is line 1; a blank line still counts as a line.
+    let cases = [
+        (
+            "x_ly,y_ly,z_ly,mass_msun\n0,0,0,1\n\n1,1,1,-0.5\n",
+            "line 4, column 'mass_msun': '-0.5' must be a positive number of solar masses",
+        ),
+        (
+            "x_ly,y_ly,z_ly,mass_msun\n0,0,0,0\n",
+            "line 2, column 'mass_msun': '0' must be a positive number of solar masses",
+        ),
+        (
+            "x_ly,y_ly,z_ly,initial_mass_msun\n0,0,0,1\n0,0,0,0\n",
+            "line 3, column 'initial_mass_msun': '0' must be a positive number of solar masses",
+        ),
+        (
+            "x_ly,y_ly,z_ly,radius_rsun\n0,0,0,-1e-3\n",
+            "line 2, column 'radius_rsun': '-1e-3' must be a positive number of solar radii",
+        ),
+        (
+            "x_ly,y_ly,z_ly,luminosity_lsun\n0,0,0,1\n0,0,0,-3\n",
+            "line 3, column 'luminosity_lsun': '-3' must be a number of solar luminosities, 0 or more",
+        ),
+        (
+            "name,x_ly,y_ly,z_ly,teff_k,luminosity_lsun,kind\nNeg,0,0,0,-5,-3,main-sequence\n",
+            "line 2, column 'teff_k': '-5' must be a number of kelvin, 0 or more",
+        ),
+        (
+            "x_ly,y_ly,z_ly,age_gyr\n0,0,0,-0.1\n",
+            "line 2, column 'age_gyr': '-0.1' must be a number of gigayears, 0 or more",
+        ),
+        (
+            "x_ly,y_ly,z_ly,lifetime_gyr\n0,0,0,-2\n",
+            "line 2, column 'lifetime_gyr': '-2' must be a number of gigayears, 0 or more",
+        ),
+        (
+            "x_ly,y_ly,z_ly,hz_inner_au,hz_outer_au\n0,0,0,-0.5,1\n",
+            "line 2, column 'hz_inner_au': '-0.5' must be a number of au, 0 or more",
+        ),
+        (
+            "x_ly,y_ly,z_ly,hz_inner_au,hz_outer_au\n0,0,0,0.5,-1\n",
+            "line 2, column 'hz_outer_au': '-1' must be a number of au, 0 or more",
+        ),
+        (
+            "x_ly,y_ly,z_ly,separation_au\n0,0,0,-10\n",
+            "line 2, column 'separation_au': '-10' must be a number of au, 0 or more",
+        ),
+        (
+            "x_ly,y_ly,z_ly,period_days\n0,0,0,-365.25\n",
+            "line 2, column 'period_days': '-365.25' must be a number of days, 0 or more",
+        ),
+        (
+            "ra_deg,dec_deg,distance_ly\n10,20,5\n10,20,-4\n",
+            "line 3, column 'distance_ly': '-4' must be a number of light years, 0 or more",
+        ),
+        (
+            "ra_deg,dec_deg,distance_pc\n10,20,-1\n",
+            "line 2, column 'distance_pc': '-1' must be a number of parsecs, 0 or more",
+        ),
+        // Not a finite number, in any numeric column.
+        (
+            "x_ly,y_ly,z_ly,teff_k\n0,0,0,nan\n",
+            "line 2, column 'teff_k': 'nan' is not a finite number",
+        ),
+        (
+            "x_ly,y_ly,z_ly\ninf,0,0\n",
+            "line 2, column 'x_ly': 'inf' is not a finite number",
+        ),
+        (
+            "x_ly,y_ly,z_ly,luminosity_lsun\n0,0,0,1e400\n",
+            "line 2, column 'luminosity_lsun': '1e400' is not a finite number",
+        ),
+        (
+            "x_ly,y_ly,z_ly,abs_mag_v\n0,0,0,-inf\n",
+            "line 2, column 'abs_mag_v': '-inf' is not a finite number",
+        ),
+        (
+            "ra_deg,dec_deg,distance_pc\nNaN,20,1\n",
+            "line 2, column 'ra_deg': 'NaN' is not a finite number",
+        ),
+        // Quoted fields go through the csv crate: the same check.
+        (
+            "name,x_ly,y_ly,z_ly,mass_msun\n\"Rest, the\",0,0,0,1\n\"Far, the\",0,0,0,-1\n",
+            "line 3, column 'mass_msun': '-1' must be a positive number of solar masses",
+        ),
+    ];
+    for (k, (text, expected)) in cases.iter().enumerate() {
+        check_refused(&dir, &format!("case{k}.csv"), text, expected);
+    }
+    // JSON Lines: the same check, the first object on line 1.
+    check_refused(
+        &dir,
+        "neg.jsonl",
+        "{\"x_ly\":0,\"y_ly\":0,\"z_ly\":0,\"teff_k\":5000}\n{\"x_ly\":0,\"y_ly\":0,\"z_ly\":0,\"teff_k\":-5}\n",
+        "line 2, column 'teff_k': '-5' must be a number of kelvin, 0 or more",
+    );
+    // What the values may be at their lowest: 0 where starloom writes 0
+    // (a black hole's light, a brown dwarf's lifetime, a single star's
+    // orbit), an empty field (left out), a negative magnitude.
+    std::fs::write(
+        dir.join("zeros.csv"),
+        "x_ly,y_ly,z_ly,mass_msun,luminosity_lsun,teff_k,age_gyr,lifetime_gyr,hz_inner_au,hz_outer_au,abs_mag_v,separation_au,period_days\n\
+         0,0,0,5,0,0,0,0,0,0,99,0,0\n\
+         1,0,0,1,,,,,,,-1.5,,\n",
+    )
+    .unwrap();
+    let cat = read_catalogue(&dir.join("zeros.csv")).unwrap();
+    assert_eq!((cat.luminosity_lsun[0], cat.teff_k[0]), (0.0, 0.0));
+    assert_eq!(cat.abs_mag_v[1], -1.5);
+    std::fs::write(dir.join("here.csv"), "ra_deg,dec_deg,distance_ly\n0,0,0\n").unwrap();
+    assert_eq!(
+        read_catalogue(&dir.join("here.csv"))
+            .unwrap()
+            .position_ly(0),
+        [0.0; 3]
+    );
+}
+
+#[test]
+fn sector_map_and_summary_refuse_a_negative_temperature() {
+    let dir = work_dir("sector-reader-negative-cli");
+    std::fs::write(
+        dir.join("neg.csv"),
+        "name,x_ly,y_ly,z_ly,teff_k,luminosity_lsun,kind\nNeg,0,0,0,-5,-3,main-sequence\n",
+    )
+    .unwrap();
+    let want = "neg.csv, line 2, column 'teff_k': '-5' must be a number of kelvin, 0 or more";
+    assert_user_error(
+        &starloom(&dir, &["map", "neg.csv", "--out", "neg.png"]),
+        want,
+    );
+    assert!(!dir.join("neg.png").exists());
+    assert_user_error(&starloom(&dir, &["summary", "neg.csv"]), want);
+    // A file in starloom's own layout goes through its fast decoder, and
+    // `map` reads only some columns: a bad value it reads is refused too.
+    starloom_ok(
+        &dir,
+        &[
+            "populate", "--sphere", "20", "--seed", "7", "--out", "own.csv",
+        ],
+    );
+    let text = std::fs::read_to_string(dir.join("own.csv")).unwrap();
+    let mut lines: Vec<String> = text.lines().map(str::to_string).collect();
+    let at = lines[0]
+        .split(',')
+        .position(|h| h == "luminosity_lsun")
+        .unwrap();
+    let mut fields: Vec<String> = lines[5].split(',').map(str::to_string).collect();
+    assert!(fields[at].parse::<f64>().unwrap() > 0.0, "{}", lines[5]);
+    fields[at] = format!("-{}", fields[at]);
+    let value = fields[at].clone();
+    lines[5] = fields.join(",");
+    std::fs::write(dir.join("own.csv"), lines.join("\n") + "\n").unwrap();
+    let want = format!(
+        "own.csv, line 6, column 'luminosity_lsun': '{value}' must be a number of solar luminosities, 0 or more"
+    );
+    assert_user_error(
+        &starloom(&dir, &["map", "own.csv", "--out", "own.png"]),
+        &want,
+    );
+    assert_user_error(&starloom(&dir, &["summary", "own.csv"]), &want);
+}
+
+#[test]
+fn sector_reads_every_kind_it_writes_with_its_zeros() {
+    let dir = work_dir("sector-reader-remnants");
+    // Seed 2 with real stars and every remnant kept holds black holes
+    // (luminosity, Teff and habitable zone 0), brown dwarfs (lifetime 0)
+    // and single stars (separation and period 0).
+    for out in ["all.csv", "all.jsonl"] {
+        starloom_ok(
+            &dir,
+            &[
+                "populate",
+                "--sphere",
+                "50",
+                "--real",
+                "--keep-remnants",
+                "--seed",
+                "2",
+                "--out",
+                out,
+            ],
+        );
+        let path = dir.join(out);
+        let cat = read_catalogue(&path).unwrap();
+        let kind_zero = |kind: StarKind, col: &[f64]| {
+            (0..cat.len()).any(|i| cat.kind[i] == kind && col[i] == 0.0)
+        };
+        assert!(
+            kind_zero(StarKind::BlackHole, &cat.luminosity_lsun),
+            "{out}"
+        );
+        assert!(kind_zero(StarKind::BlackHole, &cat.teff_k), "{out}");
+        assert!(kind_zero(StarKind::BlackHole, &cat.hz_inner_au), "{out}");
+        assert!(kind_zero(StarKind::BrownDwarf, &cat.lifetime_gyr), "{out}");
+        assert!(cat.separation_au.contains(&0.0) && cat.period_days.contains(&0.0));
+        for columns in [
+            starloom::map::CATALOGUE_COLUMNS,
+            starloom::routes::CATALOGUE_COLUMNS,
+        ] {
+            let part = starloom::catalogue::reader::read_catalogue_columns(&path, columns).unwrap();
+            assert_eq!(part.len(), cat.len(), "{out}");
+        }
+        starloom_ok(&dir, &["summary", out]);
+    }
 }
