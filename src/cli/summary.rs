@@ -44,7 +44,7 @@ fn diagram_options(args: &SummaryArgs) -> crate::Result<Option<(PathBuf, f32, Th
     let Some(path) = &args.hr else {
         return Ok(None);
     };
-    Format::from_path(path)?;
+    Format::from_path(path, "--hr")?;
     crate::atomic_file::check_target(path, args.force)?;
     Ok(Some((path.clone(), dpi, theme)))
 }

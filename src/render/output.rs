@@ -25,8 +25,9 @@ pub enum Format {
 pub const ALLOWED_EXTENSIONS: &str = ".png, .svg or .pdf";
 
 impl Format {
-    /// The format named by `path`'s extension (case-insensitive).
-    pub fn from_path(path: &Path) -> Result<Format> {
+    /// The format named by `path`'s extension (case-insensitive); an
+    /// error names `option`, the option that gave the path (`--hr`).
+    pub fn from_path(path: &Path, option: &str) -> Result<Format> {
         let ext = path
             .extension()
             .map(|e| e.to_string_lossy().to_ascii_lowercase());
@@ -35,9 +36,9 @@ impl Format {
             Some("svg") => Ok(Format::Svg),
             Some("pdf") => Ok(Format::Pdf),
             _ => Err(Error::invalid(
-                "the output file",
+                option,
                 path.display(),
-                format!("its name must end in {ALLOWED_EXTENSIONS}"),
+                format!("it must end in {ALLOWED_EXTENSIONS}"),
             )),
         }
     }
@@ -78,7 +79,8 @@ pub fn parse_dpi(text: &str) -> Result<f32> {
 /// count, resolution, raster size, target folder and an existing file)
 /// without drawing anything.
 pub fn check_output(scenes: &[Scene], path: &Path, dpi: f32, force: bool) -> Result<Format> {
-    let format = Format::from_path(path)?;
+    // Commands check their own options first; this names the file only.
+    let format = Format::from_path(path, "the output file")?;
     if scenes.is_empty() {
         return Err(Error::Usage(format!(
             "there is nothing to draw into {}",

@@ -75,7 +75,10 @@ fn summary_writes_the_diagram() {
     );
     assert_user_error(&bad, "--dpi");
     let bad = starloom(&dir, &["summary", "four.csv", "--hr", "x.gif"]);
-    assert_user_error(&bad, ".png, .svg or .pdf");
+    assert_user_error(
+        &bad,
+        "--hr got 'x.gif', but it must end in .png, .svg or .pdf",
+    );
     assert!(!dir.join("x.png").exists() && !dir.join("x.gif").exists());
 }
 
