@@ -161,10 +161,6 @@ fn settings(
     let paper = options::parse_paper(&args.paper)?;
     let dpi = options::parse_dpi(&args.dpi)?;
     let landscape = args.landscape || !args.portrait;
-    let (w, h) = paper.size_mm(landscape);
-    if ext.as_deref() == Some("png") {
-        map::check_raster_memory(w, h, dpi)?;
-    }
     let view = options::parse_view(
         &args.view,
         args.tilt.as_deref(),

@@ -40,32 +40,8 @@ pub const CATALOGUE_COLUMNS: Columns = Columns::NAME
     .with(Columns::HABITABLE_HOST)
     .with(Columns::ORIGIN);
 
-use crate::error::{Error, Result};
 use crate::render::scene::Scene;
 use std::path::{Path, PathBuf};
-
-/// The largest raster a sheet may need, pixels (1.6 GB of RGBA).
-pub const MAX_SHEET_PIXELS: f64 = 400.0e6;
-
-/// Refuses a raster sheet of `width_mm` × `height_mm` at `dpi` that would
-/// need more than [`MAX_SHEET_PIXELS`] pixels.
-///
-/// # Errors
-/// [`Error::TooLarge`] with the size in pixels and what to change.
-pub fn check_raster_memory(width_mm: f32, height_mm: f32, dpi: f32) -> Result<()> {
-    let w = (f64::from(width_mm) / 25.4 * f64::from(dpi)).round();
-    let h = (f64::from(height_mm) / 25.4 * f64::from(dpi)).round();
-    if w * h > MAX_SHEET_PIXELS {
-        return Err(Error::TooLarge(format!(
-            "a {} × {} mm sheet at {dpi} dpi needs {w} × {h} pixels ({:.1} GB), more than the {} million pixel limit; lower --dpi or choose a smaller --paper",
-            width_mm,
-            height_mm,
-            w * h * 4.0 / 1e9,
-            MAX_SHEET_PIXELS / 1e6
-        )));
-    }
-    Ok(())
-}
 
 /// The file of one sheet: `PATH` itself for a single sheet, else
 /// `STEM.r2c3.EXT` for tiles and `STEM.index.EXT` for the index, beside
@@ -118,12 +94,5 @@ mod tests {
             sheet_path(out, &mk(SheetRole::Index)),
             Path::new("/tmp/x/sheet.index.png")
         );
-    }
-
-    #[test]
-    fn huge_rasters_are_refused() {
-        assert!(check_raster_memory(420.0, 297.0, 300.0).is_ok());
-        let err = check_raster_memory(841.0, 1189.0, 2400.0).unwrap_err();
-        assert!(err.to_string().contains("--dpi"), "{err}");
     }
 }

@@ -96,8 +96,7 @@ pub fn check_output(scenes: &[Scene], path: &Path, dpi: f32, force: bool) -> Res
     }
     if format == Format::Png {
         check_dpi("--dpi", dpi)?;
-        let (w, h) = raster::raster_size_px(&scenes[0], dpi);
-        raster::check_raster_size(w, h, dpi)?;
+        raster::check_raster_size(&scenes[0], dpi)?;
     }
     atomic_file::check_target(path, force)?;
     Ok(format)
@@ -107,14 +106,25 @@ pub fn check_output(scenes: &[Scene], path: &Path, dpi: f32, force: bool) -> Res
 /// SVG take exactly one scene; PDF writes one page per scene. Raster
 /// output uses `dpi` dots per inch.
 ///
+/// # Allocations
+/// A PNG goes to the file as it is compressed, the bytes of
+/// [`png_bytes`]: its memory does not grow with the page but is bounded
+/// by [`PNG_PIPELINE_BYTES`] (plus the scene and its stars in pixels).
+///
 /// # Guarantees
 /// The file is written atomically; on any error nothing is left behind
 /// and an existing file is kept unless `force`.
 pub fn write_scenes(scenes: &[Scene], path: &Path, dpi: f32, force: bool) -> Result<()> {
     match check_output(scenes, path, dpi, force)? {
         Format::Png => {
-            let bytes = png_bytes(&scenes[0], dpi)?;
-            atomic_file::write_bytes(path, force, &bytes)
+            let bands = raster::BandRaster::new(&scenes[0], dpi)?;
+            atomic_file::write_atomic(path, force, |file| {
+                write_png(&bands, dpi, file, |file| {
+                    use std::io::Seek;
+                    file.rewind()?;
+                    file.get_mut().set_len(0)
+                })
+            })
         }
         Format::Svg => {
             let text = crate::render::svg::svg_string(&scenes[0]);
@@ -133,16 +143,21 @@ pub fn pixels_per_metre(dpi: f32) -> u32 {
     (f64::from(dpi) / 0.0254).round() as u32
 }
 
-/// Draws `scene` at `dpi` and encodes it as PNG bytes: 8-bit RGB when the
-/// background is opaque (RGBA otherwise), the resolution in pHYs, fast
-/// compression.
+/// Draws `scene` at `dpi` and encodes it as PNG bytes: 8-bit RGB when
+/// every pixel is opaque (RGBA, straight alpha, otherwise), the
+/// resolution in pHYs, fast compression. [`write_scenes`] writes the same
+/// bytes straight to a file.
 ///
 /// # Speed
-/// An opaque page is never held whole as RGBA: each band of
-/// [`raster::BAND_ROWS`] rows is drawn into a per-thread scratch buffer,
-/// turned into filtered RGB scanlines while still in the cache, and
-/// handed to one compressor thread that deflates the bands in page
-/// order as they arrive, so compression overlaps drawing.
+/// The page is never held whole: each band of [`raster::BAND_ROWS`] rows
+/// is drawn into a per-thread scratch buffer, turned into filtered
+/// scanlines while still in the cache, and handed to one compressor
+/// thread that deflates the bands in page order as they arrive, so
+/// compression overlaps drawing.
+///
+/// # Allocations
+/// The PNG bytes, plus about [`PNG_PIPELINE_BYTES`] of bands in flight at
+/// most (see [`write_scenes`]).
 ///
 /// # Guarantees
 /// Same bytes whatever `RAYON_NUM_THREADS` is: a band's pixels and
@@ -150,45 +165,173 @@ pub fn pixels_per_metre(dpi: f32) -> u32 {
 /// in page order.
 pub fn png_bytes(scene: &Scene, dpi: f32) -> Result<Vec<u8>> {
     let bands = raster::BandRaster::new(scene, dpi)?;
-    let png_err = |e: png::EncodingError| Error::Write {
+    let mut out = Vec::new();
+    write_png(&bands, dpi, &mut out, |out| {
+        out.clear();
+        Ok(())
+    })
+    .map_err(|e| Error::Write {
         path: "PNG data".into(),
         message: e.to_string(),
-    };
-    if scene.background.a == 255
-        && let Some(zlib) = opaque_zlib(&bands).map_err(|e| png_err(e.into()))?
-    {
-        let mut out = Vec::with_capacity(zlib.len() + 1024);
-        write_chunks(
-            &mut out,
-            bands.width(),
-            bands.height(),
-            png::ColorType::Rgb,
-            dpi,
-            &zlib,
-        )
-        .map_err(png_err)?;
-        return Ok(out);
-    }
-    let pixmap = raster::rasterise(scene, dpi)?;
-    let mut out = Vec::with_capacity(pixmap.data().len() / 4);
-    encode_png(&pixmap, dpi, &mut out).map_err(png_err)?;
+    })?;
     Ok(out)
 }
 
-/// Draws every band of an opaque page and deflates its filtered RGB rows
-/// into one zlib stream; `None` if some pixel turned out not opaque.
-fn opaque_zlib(bands: &raster::BandRaster<'_>) -> std::io::Result<Option<Vec<u8>>> {
+/// Memory the PNG pipeline plans to fill with bands in flight, bytes:
+/// each drawing thread's RGBA scratch band and two filtered bands per
+/// thread, drawn ahead or waiting for the compressor (plus the one being
+/// compressed). Fewer threads draw
+/// when a band is so wide that all of them would need more (A0 landscape
+/// at 2400 dpi: 57.5 MB of RGBA and 43.1 MB of filtered rows a band, so
+/// three threads at most); the output does not depend on the number of
+/// threads.
+pub const PNG_PIPELINE_BYTES: usize = 512 << 20;
+
+/// How many of `threads` draw bands `width` pixels wide for a PNG of
+/// `per_px` bytes a pixel, so that their bands fit in
+/// [`PNG_PIPELINE_BYTES`]; at least one.
+fn pipeline_threads(width: usize, per_px: usize, threads: usize) -> usize {
+    let rows = raster::BAND_ROWS as usize;
+    let band_rgba = rows * width * 4;
+    let band_filtered = rows * (per_px * width + 1);
+    (PNG_PIPELINE_BYTES / (band_rgba + 2 * band_filtered)).clamp(1, threads.max(1))
+}
+
+/// What each pixel of a streamed PNG holds.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+enum Channels {
+    /// RGB, for a page whose every pixel is opaque.
+    Rgb,
+    /// RGBA with straight alpha.
+    Rgba,
+}
+
+/// Writes the PNG of `bands` at `dpi` into `out`, band by band. The
+/// colour type is guessed from the page background; when the pixels
+/// prove it wrong (a transparent pixel on an opaque page, or no
+/// transparent pixel on a transparent one), `rewind` empties `out` and
+/// the page is written again with the other one.
+fn write_png<W, F>(
+    bands: &raster::BandRaster<'_>,
+    dpi: f32,
+    out: &mut W,
+    mut rewind: F,
+) -> std::io::Result<()>
+where
+    W: Write + Send,
+    F: FnMut(&mut W) -> std::io::Result<()>,
+{
+    let mut channels = if bands.background_opaque() {
+        Channels::Rgb
+    } else {
+        Channels::Rgba
+    };
+    for _ in 0..2 {
+        if stream_png(bands, channels, dpi, out)? {
+            return Ok(());
+        }
+        rewind(out)?;
+        channels = match channels {
+            Channels::Rgb => Channels::Rgba,
+            Channels::Rgba => Channels::Rgb,
+        };
+    }
+    // The second colour type always fits: the first one's pass saw the
+    // pixels that decide it.
+    Err(std::io::Error::other("the PNG colour type did not settle"))
+}
+
+/// How far the drawing threads may run ahead of the compressor: the
+/// count of bands it has written, and whether the page was abandoned.
+struct Gate {
+    state: std::sync::Mutex<(usize, bool)>,
+    moved: std::sync::Condvar,
+}
+
+impl Gate {
+    /// Waits until band `band` is fewer than `window` bands ahead of the
+    /// compressor; false when the page was abandoned meanwhile.
+    fn wait_for_room(&self, band: usize, window: usize) -> bool {
+        let mut state = self.state.lock().expect("the PNG gate");
+        while !state.1 && band >= state.0 + window {
+            state = self.moved.wait(state).expect("the PNG gate");
+        }
+        !state.1
+    }
+
+    fn written(&self, bands: usize) {
+        self.state.lock().expect("the PNG gate").0 = bands;
+        self.moved.notify_all();
+    }
+
+    fn abandon(&self) {
+        self.state.lock().expect("the PNG gate").1 = true;
+        self.moved.notify_all();
+    }
+}
+
+/// Abandons the page when dropped, so that no drawing thread waits for a
+/// compressor that stopped (finished, failed or panicked).
+struct AbandonOnDrop<'a>(&'a Gate);
+
+impl Drop for AbandonOnDrop<'_> {
+    fn drop(&mut self) {
+        self.0.abandon();
+    }
+}
+
+/// Draws every band, filters its rows as `channels` and deflates them in
+/// page order into a whole PNG in `out`. Returns false, with `out` holding
+/// an unfinished file, when the pixels need the other colour type.
+///
+/// Threads take bands in page order and wait while they are more than a
+/// window of bands ahead of the compressor, so at most a window of
+/// filtered bands is ever in memory (the compressor can only wait for a
+/// band that a thread is drawing, never for one that waits).
+fn stream_png<W: Write + Send>(
+    bands: &raster::BandRaster<'_>,
+    channels: Channels,
+    dpi: f32,
+    out: &mut W,
+) -> std::io::Result<bool> {
     use std::sync::atomic::{AtomicBool, AtomicUsize, Ordering};
     let n = bands.bands();
     let w = bands.width() as usize;
-    let stride = 3 * w + 1;
+    let per_px = match channels {
+        Channels::Rgb => 3,
+        Channels::Rgba => 4,
+    };
+    let stride = per_px * w + 1;
+    let workers = pipeline_threads(w, per_px, rayon::current_num_threads().min(n));
+    let window = 2 * workers;
     let next = AtomicUsize::new(0);
-    let transparent = AtomicBool::new(false);
+    // A pixel that does not fit `channels`: transparent on an RGB page;
+    // on an RGBA page, any pixel at all that is not opaque.
+    let misfit = AtomicBool::new(false);
+    let seen_transparent = AtomicBool::new(false);
+    let gate = Gate {
+        state: std::sync::Mutex::new((0, false)),
+        moved: std::sync::Condvar::new(),
+    };
+    // Filtered bands the compressor is done with, for the threads to fill
+    // again: a wide band is tens of megabytes, and a fresh one each time
+    // cost as much system time in page faults as all the drawing.
+    let spare = std::sync::Mutex::new(Vec::<Vec<u8>>::new());
     let (tx, rx) = std::sync::mpsc::channel::<(usize, Vec<u8>)>();
     std::thread::scope(|s| {
-        let deflater = s.spawn(move || -> std::io::Result<Option<Vec<u8>>> {
-            let size_guess = stride * bands.height() as usize / 6;
-            let mut z = fdeflate::Compressor::new(Vec::with_capacity(size_guess))?;
+        let (gate, spare) = (&gate, &spare);
+        let deflater = s.spawn(move || -> std::io::Result<bool> {
+            let _abandon = AbandonOnDrop(gate);
+            let color = match channels {
+                Channels::Rgb => png::ColorType::Rgb,
+                Channels::Rgba => png::ColorType::Rgba,
+            };
+            let png = png_header(out, bands.width(), bands.height(), color, dpi)?;
+            let idat = IdatChunks {
+                png,
+                pending: Vec::with_capacity(IDAT_BYTES),
+            };
+            let mut z = fdeflate::Compressor::new(idat)?;
             let mut pending = std::collections::BTreeMap::new();
             let mut want = 0;
             for (k, rows) in rx {
@@ -196,31 +339,54 @@ fn opaque_zlib(bands: &raster::BandRaster<'_>) -> std::io::Result<Option<Vec<u8>
                 while let Some(rows) = pending.remove(&want) {
                     z.write_data(&rows)?;
                     want += 1;
+                    gate.written(want);
+                    spare.lock().expect("the spare PNG bands").push(rows);
                 }
             }
-            Ok((want == n).then_some(z.finish()?))
+            if want < n {
+                return Ok(false);
+            }
+            z.finish()?.finish()?;
+            Ok(true)
         });
-        // Workers take bands in page order, so the compressor rarely waits.
         rayon::scope(|sc| {
-            for _ in 0..rayon::current_num_threads().min(n) {
+            for _ in 0..workers {
                 let tx = tx.clone();
-                let (next, transparent) = (&next, &transparent);
+                let (next, misfit, seen_transparent) = (&next, &misfit, &seen_transparent);
                 sc.spawn(move |_| {
                     let mut rgba = Vec::new();
                     loop {
                         let k = next.fetch_add(1, Ordering::Relaxed);
-                        if k >= n || transparent.load(Ordering::Relaxed) {
+                        if k >= n || !gate.wait_for_room(k, window) {
                             break;
                         }
                         let rows = bands.band_rows(k) as usize;
                         rgba.resize(rows * w * 4, 0);
                         bands.draw_into(k, &mut rgba);
-                        let mut out = vec![0u8; rows * stride];
-                        if !filter_rgb_rows(&rgba, w, &mut out) {
-                            transparent.store(true, Ordering::Relaxed);
-                            break;
+                        // Every byte is written below.
+                        let mut filtered = spare
+                            .lock()
+                            .expect("the spare PNG bands")
+                            .pop()
+                            .unwrap_or_default();
+                        filtered.resize(rows * stride, 0);
+                        match channels {
+                            Channels::Rgb => {
+                                if !filter_rgb_rows(&rgba, w, &mut filtered) {
+                                    misfit.store(true, Ordering::Relaxed);
+                                    gate.abandon();
+                                    break;
+                                }
+                            }
+                            Channels::Rgba => {
+                                if !rgba.chunks_exact(4).all(|p| p[3] == 255) {
+                                    seen_transparent.store(true, Ordering::Relaxed);
+                                }
+                                unpremultiply(&mut rgba);
+                                filter_rgba_rows(&rgba, w, &mut filtered);
+                            }
                         }
-                        if tx.send((k, out)).is_err() {
+                        if tx.send((k, filtered)).is_err() {
                             break;
                         }
                     }
@@ -228,9 +394,62 @@ fn opaque_zlib(bands: &raster::BandRaster<'_>) -> std::io::Result<Option<Vec<u8>
             }
         });
         drop(tx);
-        let zlib = deflater.join().expect("the PNG compressor thread")?;
-        Ok(zlib.filter(|_| !transparent.load(Ordering::Relaxed)))
+        let finished = deflater.join().expect("the PNG compressor thread")?;
+        if channels == Channels::Rgba && !seen_transparent.load(Ordering::Relaxed) {
+            return Ok(false);
+        }
+        Ok(finished && !misfit.load(Ordering::Relaxed))
     })
+}
+
+/// A writer that cuts the zlib stream into IDAT chunks of [`IDAT_BYTES`]
+/// (the last one shorter) as it arrives.
+struct IdatChunks<W: Write> {
+    png: png::Writer<W>,
+    pending: Vec<u8>,
+}
+
+impl<W: Write> IdatChunks<W> {
+    /// Writes the last chunk and IEND.
+    fn finish(mut self) -> std::io::Result<()> {
+        if !self.pending.is_empty() {
+            self.png.write_chunk(png::chunk::IDAT, &self.pending)?;
+        }
+        self.png.finish()?;
+        Ok(())
+    }
+}
+
+impl<W: Write> Write for IdatChunks<W> {
+    fn write(&mut self, mut data: &[u8]) -> std::io::Result<usize> {
+        let n = data.len();
+        while !data.is_empty() {
+            let take = (IDAT_BYTES - self.pending.len()).min(data.len());
+            self.pending.extend_from_slice(&data[..take]);
+            data = &data[take..];
+            if self.pending.len() == IDAT_BYTES {
+                self.png.write_chunk(png::chunk::IDAT, &self.pending)?;
+                self.pending.clear();
+            }
+        }
+        Ok(n)
+    }
+
+    fn flush(&mut self) -> std::io::Result<()> {
+        Ok(())
+    }
+}
+
+/// Premultiplied RGBA pixels to straight alpha, in place.
+fn unpremultiply(rgba: &mut [u8]) {
+    for p in rgba.chunks_exact_mut(4) {
+        let a = u32::from(p[3]);
+        if a != 0 && a != 255 {
+            for v in &mut p[..3] {
+                *v = ((u32::from(*v) * 255 + a / 2) / a).min(255) as u8;
+            }
+        }
+    }
 }
 
 /// Turns premultiplied RGBA rows of `width` pixels into PNG scanlines of
@@ -300,6 +519,27 @@ fn filter_rgba_rows(rgba: &[u8], width: usize, out: &mut [u8]) {
     }
 }
 
+/// Writes the PNG signature, IHDR and pHYs into `w` and returns the
+/// writer for the IDAT chunks.
+fn png_header<W: Write>(
+    w: W,
+    width: u32,
+    height: u32,
+    color: png::ColorType,
+    dpi: f32,
+) -> std::result::Result<png::Writer<W>, png::EncodingError> {
+    let mut enc = png::Encoder::new(w, width, height);
+    enc.set_color(color);
+    enc.set_depth(png::BitDepth::Eight);
+    let ppm = pixels_per_metre(dpi);
+    enc.set_pixel_dims(Some(png::PixelDimensions {
+        xppu: ppm,
+        yppu: ppm,
+        unit: png::Unit::Meter,
+    }));
+    enc.write_header()
+}
+
 /// Writes the PNG signature, IHDR, pHYs, the zlib stream `zlib` of the
 /// filtered scanlines as IDAT chunks, and IEND.
 fn write_chunks<W: Write>(
@@ -310,16 +550,7 @@ fn write_chunks<W: Write>(
     dpi: f32,
     zlib: &[u8],
 ) -> std::result::Result<(), png::EncodingError> {
-    let mut enc = png::Encoder::new(w, width, height);
-    enc.set_color(color);
-    enc.set_depth(png::BitDepth::Eight);
-    let ppm = pixels_per_metre(dpi);
-    enc.set_pixel_dims(Some(png::PixelDimensions {
-        xppu: ppm,
-        yppu: ppm,
-        unit: png::Unit::Meter,
-    }));
-    let mut wr = enc.write_header()?;
+    let mut wr = png_header(w, width, height, color, dpi)?;
     for chunk in zlib.chunks(IDAT_BYTES) {
         wr.write_chunk(png::chunk::IDAT, chunk)?;
     }
@@ -360,14 +591,7 @@ pub fn encode_png<W: Write>(
                 filter_rgb_rows(src, width, out);
             } else {
                 let mut straight = src.to_vec();
-                for p in straight.chunks_exact_mut(4) {
-                    let a = u32::from(p[3]);
-                    if a != 0 && a != 255 {
-                        for v in &mut p[..3] {
-                            *v = ((u32::from(*v) * 255 + a / 2) / a).min(255) as u8;
-                        }
-                    }
-                }
+                unpremultiply(&mut straight);
                 filter_rgba_rows(&straight, width, out);
             }
         });
@@ -377,4 +601,23 @@ pub fn encode_png<W: Write>(
     }
     let zlib = z.finish()?;
     write_chunks(w, pixmap.width(), pixmap.height(), color, dpi, &zlib)
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn wide_bands_are_drawn_by_fewer_threads() {
+        // A4 at 300 dpi (3508 px): 1.8 MB of RGBA and 1.3 MB of RGB rows a
+        // band, so every thread of a big machine draws.
+        assert_eq!(pipeline_threads(3508, 3, 64), 64);
+        assert_eq!(pipeline_threads(3508, 3, 1), 1);
+        // A0 landscape at 2400 dpi (112 346 px): 57.5 + 2 × 43.1 MB a
+        // thread, three threads in 512 MiB.
+        assert_eq!(pipeline_threads(112_346, 3, 64), 3);
+        assert_eq!(pipeline_threads(112_346, 3, 2), 2);
+        // Never none, however wide.
+        assert_eq!(pipeline_threads(1 << 24, 4, 8), 1);
+    }
 }

@@ -15,8 +15,12 @@
 //! star's own colour. Larger stars are drawn as vector discs.
 //!
 //! # Allocations
-//! One RGBA pixmap of width × height × 4 bytes; pages needing more than
-//! [`MAX_RASTER_BYTES`] are refused before allocating.
+//! [`rasterise`]: one RGBA pixmap of width × height × 4 bytes; pages
+//! needing more than [`MAX_RASTER_BYTES`] are refused before allocating.
+//! [`BandRaster`]: the stars in pixels and their band bins (16 bytes a
+//! star and 4 bytes a star per band it touches), the sprites, and
+//! whatever band buffers the caller draws into; pages with a side longer
+//! than [`MAX_RASTER_SIDE_PX`] are refused.
 
 use crate::error::{Error, Result};
 use crate::render::paper::mm_to_px;
@@ -30,8 +34,16 @@ use tiny_skia::{
 /// Pixel rows per band (fixed, so output does not depend on threads).
 pub const BAND_ROWS: u32 = 128;
 
-/// Largest raster accepted, bytes of RGBA pixels (about 1.5 GB).
+/// Largest page [`rasterise`] draws as one pixmap, bytes of RGBA pixels
+/// (about 1.5 GB). Drawing by band ([`BandRaster`], as the PNG writer
+/// does) has no such limit.
 pub const MAX_RASTER_BYTES: u64 = 1_500_000_000;
+
+/// Longest side of a page drawn by band, pixels: 2^17, so that every
+/// paper size at every resolution a command accepts fits (the long side
+/// of A0 at 2400 dpi is 112 346 px) while one band of [`BAND_ROWS`] rows
+/// stays under 70 MB of RGBA.
+pub const MAX_RASTER_SIDE_PX: u32 = 1 << 17;
 
 /// Stars with a radius above this many pixels are drawn as vector discs.
 /// Up to it they are stamped from sprites: at most
@@ -52,27 +64,68 @@ pub fn raster_size_px(scene: &Scene, dpi: f32) -> (u32, u32) {
     )
 }
 
-/// Checks that a raster of `width` × `height` pixels fits in memory.
-pub fn check_raster_size(width: u32, height: u32, dpi: f32) -> Result<()> {
-    let bytes = u64::from(width) * u64::from(height) * 4;
-    if bytes > MAX_RASTER_BYTES {
+/// The highest whole resolution, dots per inch, at which the raster of
+/// `scene` passes `fits` (given its width and height in pixels), starting
+/// from the estimate `guess`; at least 1.
+fn highest_dpi(scene: &Scene, guess: f64, fits: impl Fn(u32, u32) -> bool) -> u32 {
+    let fits_at = |dpi: u32| {
+        let (w, h) = raster_size_px(scene, dpi as f32);
+        fits(w, h)
+    };
+    // Pixel sizes are rounded, so the estimate can be off by a step.
+    let mut best = (guess.floor() as u32).max(1);
+    while best > 1 && !fits_at(best) {
+        best -= 1;
+    }
+    while fits_at(best + 1) {
+        best += 1;
+    }
+    best
+}
+
+/// Checks that `scene` at `dpi` can be drawn by band: neither side of
+/// its raster longer than [`MAX_RASTER_SIDE_PX`].
+///
+/// # Errors
+/// [`Error::TooLarge`] naming the highest resolution that fits.
+pub fn check_raster_size(scene: &Scene, dpi: f32) -> Result<()> {
+    let (width, height) = raster_size_px(scene, dpi);
+    let side = width.max(height);
+    if side > MAX_RASTER_SIDE_PX {
+        let guess = f64::from(dpi) * f64::from(MAX_RASTER_SIDE_PX) / f64::from(side);
+        let fits = highest_dpi(scene, guess, |w, h| w.max(h) <= MAX_RASTER_SIDE_PX);
         return Err(Error::TooLarge(format!(
-            "a {width} × {height} pixel sheet at {dpi} dpi needs {:.1} GB of memory, more than the {:.1} GB allowed; lower --dpi, use a smaller paper or tile the map",
-            bytes as f64 / 1e9,
-            MAX_RASTER_BYTES as f64 / 1e9
+            "a {width} × {height} pixel page at {dpi} dpi is longer than the {MAX_RASTER_SIDE_PX} pixels a side that can be drawn; this page fits at up to {fits} dpi"
         )));
     }
     Ok(())
 }
 
 /// Draws `scene` at `dpi` dots per inch into a new premultiplied RGBA
-/// pixmap. Refuses a page that would not fit in memory.
+/// pixmap.
+///
+/// # Errors
+/// [`Error::TooLarge`] for a pixmap of more than [`MAX_RASTER_BYTES`]
+/// (refused before allocating), naming the highest resolution that fits;
+/// the PNG writer draws such pages by band instead.
 pub fn rasterise(scene: &Scene, dpi: f32) -> Result<Pixmap> {
+    let (w, h) = raster_size_px(scene, dpi);
+    let bytes = u64::from(w) * u64::from(h) * 4;
+    if bytes > MAX_RASTER_BYTES {
+        let guess = f64::from(dpi) * (MAX_RASTER_BYTES as f64 / bytes as f64).sqrt();
+        let fits = highest_dpi(scene, guess, |w, h| {
+            u64::from(w) * u64::from(h) * 4 <= MAX_RASTER_BYTES
+        });
+        return Err(Error::TooLarge(format!(
+            "a {w} × {h} pixel page at {dpi} dpi needs {} MB as one pixmap, more than the {} MB allowed; draw it at up to {fits} dpi, or by band",
+            bytes.div_ceil(1_000_000),
+            MAX_RASTER_BYTES / 1_000_000
+        )));
+    }
     let bands = BandRaster::new(scene, dpi)?;
-    let (w, h) = (bands.width(), bands.height());
     let mut pixmap = Pixmap::new(w, h).ok_or_else(|| {
         Error::TooLarge(format!(
-            "a {w} × {h} pixel sheet cannot be allocated; lower --dpi"
+            "a {w} × {h} pixel page cannot be allocated; lower the resolution"
         ))
     })?;
     let band_bytes = (BAND_ROWS * w * 4) as usize;
@@ -100,10 +153,13 @@ pub struct BandRaster<'a> {
 
 impl<'a> BandRaster<'a> {
     /// Prepares `scene` at `dpi` (pixel positions, star bins and sprites).
-    /// Refuses a page that would not fit in memory.
+    ///
+    /// # Errors
+    /// [`Error::TooLarge`] for a page with a side longer than
+    /// [`MAX_RASTER_SIDE_PX`] (see [`check_raster_size`]).
     pub fn new(scene: &'a Scene, dpi: f32) -> Result<BandRaster<'a>> {
+        check_raster_size(scene, dpi)?;
         let (width, height) = raster_size_px(scene, dpi);
-        check_raster_size(width, height, dpi)?;
         Ok(BandRaster {
             prepared: Prepared::new(scene, dpi, height),
             width,
@@ -119,6 +175,12 @@ impl<'a> BandRaster<'a> {
     /// Page height, pixels.
     pub fn height(&self) -> u32 {
         self.height
+    }
+
+    /// Whether the page background is opaque (then, drawn with
+    /// source-over, most likely every pixel is).
+    pub fn background_opaque(&self) -> bool {
+        self.prepared.scene.background.a == 255
     }
 
     /// Number of bands (the last may have fewer than [`BAND_ROWS`] rows).
@@ -911,6 +973,72 @@ fn item_extent_mm(item: &Item) -> (f32, f32) {
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    fn blank_page(width_mm: f32, height_mm: f32) -> Scene {
+        Scene {
+            width_mm,
+            height_mm,
+            background: Rgba::rgb(255, 255, 255),
+            items: vec![],
+        }
+    }
+
+    #[test]
+    fn every_paper_at_the_highest_resolution_can_be_drawn_by_band() {
+        // Pixel sizes grow with the resolution, so the top of the range
+        // stands for all of it.
+        let dpi = crate::render::output::DPI_RANGE.1;
+        for paper in crate::render::paper::Paper::ALL {
+            for landscape in [false, true] {
+                let (w, h) = paper.size_mm(landscape);
+                let page = blank_page(w, h);
+                let bands = BandRaster::new(&page, dpi);
+                assert!(bands.is_ok(), "{paper:?} at {dpi} dpi: refused");
+            }
+        }
+        // A0 portrait at 2400 dpi: 841/25.4*2400 = 79464.6 and
+        // 1189/25.4*2400 = 112346.5 px (computed by hand).
+        let page = blank_page(841.0, 1189.0);
+        let bands = BandRaster::new(&page, 2400.0).unwrap();
+        assert_eq!((bands.width(), bands.height()), (79465, 112346));
+    }
+
+    #[test]
+    fn a_page_too_long_names_the_resolution_that_fits() {
+        // 1400 mm: 55 118 px at 1000 dpi, 132 283 px at 2400 dpi.
+        let err = check_raster_size(&blank_page(1400.0, 1000.0), 2400.0).unwrap_err();
+        assert!(matches!(err, Error::TooLarge(_)), "{err}");
+        let msg = err.to_string();
+        assert!(msg.contains("up to 2378 dpi"), "{msg}");
+        for (dpi, fits) in [(2378.0, true), (2379.0, false)] {
+            let ok = check_raster_size(&blank_page(1400.0, 1000.0), dpi).is_ok();
+            assert_eq!(ok, fits, "{dpi} dpi");
+        }
+    }
+
+    #[test]
+    fn a_pixmap_too_big_names_the_resolution_that_fits() {
+        // A4 landscape at 2000 dpi: 23 386 × 16 535 px, 1547 MB of RGBA.
+        let page = blank_page(297.0, 210.0);
+        let err = rasterise(&page, 2000.0).expect_err("refused");
+        let msg = err.to_string();
+        assert!(msg.contains("1547 MB") && msg.contains("1500 MB"), "{msg}");
+        let fits: u32 = msg
+            .split("up to ")
+            .nth(1)
+            .and_then(|t| t.split(' ').next())
+            .and_then(|t| t.parse().ok())
+            .expect("a resolution in the message");
+        let bytes = |dpi: u32| {
+            let (w, h) = raster_size_px(&page, dpi as f32);
+            u64::from(w) * u64::from(h) * 4
+        };
+        assert!(bytes(fits) <= MAX_RASTER_BYTES, "{fits} dpi does not fit");
+        assert!(
+            bytes(fits + 1) > MAX_RASTER_BYTES,
+            "{fits} dpi is not the highest"
+        );
+    }
 
     /// A background with every byte different and alpha not always 255
     /// (premultiplied: colour bytes never above alpha).

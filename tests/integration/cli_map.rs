@@ -1,7 +1,7 @@
 //! The `map` command as a user runs it: bad input gives one sentence,
 //! exit code 2 and no file.
 
-use crate::util::{assert_user_error, starloom, work_dir};
+use crate::util::{assert_user_error, starloom, starloom_ok, stderr, work_dir};
 use std::path::Path;
 
 const HAND_MADE: &str = "name,x_ly,y_ly,z_ly\nHome,0,0,0\nEast,10,0,2\nNorth,0,10,-3\n";
@@ -44,7 +44,6 @@ fn bad_options_are_one_sentence_and_write_nothing() {
         (&["--lanes"], "--jump"),
         (&["--jump", "-5"], "--jump"),
         (&["--jump", "8", "--route", "Home"], "--route"),
-        (&["--paper", "a0", "--portrait", "--dpi", "2400"], "--dpi"),
         (
             &["--view", "perspective", "--eye", "1,1,1", "--look", "1,1,1"],
             "--eye",
@@ -261,4 +260,39 @@ fn a_generated_sector_is_mapped_about_its_own_centre() {
     );
     let svg = std::fs::read_to_string(dir.join("t.svg")).unwrap();
     assert!(svg.contains("heights from the plane z = 0 ly"));
+}
+
+/// Width and height from a PNG's IHDR and its pixels per metre from
+/// pHYs, without decoding the pixels.
+fn png_header(path: &Path) -> (u32, u32, Option<u32>) {
+    let file = std::io::BufReader::new(std::fs::File::open(path).unwrap());
+    let reader = png::Decoder::new(file).read_info().unwrap();
+    let info = reader.info();
+    (info.width, info.height, info.pixel_dims.map(|d| d.xppu))
+}
+
+#[test]
+fn the_highest_resolution_draws_the_smallest_paper() {
+    // The top of the --dpi range on A4, the smallest paper: it was refused
+    // as too many pixels, and 2000 dpi as too many bytes; the PNG is
+    // drawn and written band by band, so both work. A4 landscape at
+    // 2400 dpi: 297/25.4*2400 = 28062.99 → 28063 px, 210/25.4*2400 =
+    // 19842.52 → 19843 px; round(2400/0.0254) = 94488 px per metre.
+    let dir = setup("map-top-dpi");
+    let out = starloom_ok(
+        &dir,
+        &["map", "stars.csv", "--out", "map.png", "--dpi", "2400"],
+    );
+    assert!(stderr(&out).is_empty(), "{}", stderr(&out));
+    assert_eq!(
+        png_header(&dir.join("map.png")),
+        (28063, 19843, Some(94488))
+    );
+    // The Hertzsprung–Russell diagram of summary too (an A4 landscape
+    // page).
+    starloom_ok(
+        &dir,
+        &["summary", "stars.csv", "--hr", "hr.png", "--dpi", "2400"],
+    );
+    assert_eq!(png_header(&dir.join("hr.png")), (28063, 19843, Some(94488)));
 }

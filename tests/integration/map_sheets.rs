@@ -646,14 +646,22 @@ fn star_labels_keep_clear_of_the_grid_texts() {
         let s = build_sheets(&c, &opts, &Overlay::default()).unwrap();
         let scene = &s.sheets[0].scene;
         let grid = grid_text_boxes(scene);
-        assert!(grid.len() >= 2, "{view:?}: grid texts drawn: {}", grid.len());
+        assert!(
+            grid.len() >= 2,
+            "{view:?}: grid texts drawn: {}",
+            grid.len()
+        );
         let labels: Vec<(&str, Rect)> = scene
             .items
             .iter()
             .filter_map(text_box)
             .filter(|(t, _)| t.starts_with("Long-named"))
             .collect();
-        assert!(labels.len() >= 5, "{view:?}: labels placed: {}", labels.len());
+        assert!(
+            labels.len() >= 5,
+            "{view:?}: labels placed: {}",
+            labels.len()
+        );
         for (t, b) in &labels {
             for (g, gb) in &grid {
                 assert!(

@@ -250,13 +250,13 @@ fn bad_requests_write_nothing() {
     let two = dir.join("two.png");
     let err = write_scenes(&[scene.clone(), scene.clone()], &two, 300.0, false).unwrap_err();
     assert!(err.to_string().contains("one page"), "{err}");
-    // A0 at 2400 dpi: 841/25.4*2400 × 1189/25.4*2400 = 79465 × 112346 px,
-    // 35.7 GB of RGBA: refused before any allocation.
-    let (w, h) = Paper::A0.size_mm(false);
+    // 1400 mm at 2400 dpi is 132 283 px, longer than the 131 072 px a
+    // side that can be drawn: refused before drawing, naming the highest
+    // resolution that fits (131 072 / 132 283 × 2400 = 2378.03).
     let huge = dir.join("huge.png");
-    let err = write_scenes(&[page(w, h, vec![])], &huge, 2400.0, false).unwrap_err();
+    let err = write_scenes(&[page(1400.0, 1000.0, vec![])], &huge, 2400.0, false).unwrap_err();
     assert!(matches!(err, starloom::Error::TooLarge(_)), "{err}");
-    assert!(err.to_string().contains("GB"), "{err}");
+    assert!(err.to_string().contains("up to 2378 dpi"), "{err}");
     let low = dir.join("low.png");
     let err = write_scenes(std::slice::from_ref(&scene), &low, 5.0, false).unwrap_err();
     assert!(err.to_string().contains("--dpi"), "{err}");
@@ -268,4 +268,74 @@ fn bad_requests_write_nothing() {
         write_scenes(std::slice::from_ref(&scene), &ok, 300.0, false),
         Err(starloom::Error::OutputExists(_))
     ));
+}
+
+/// The PNG file `write_scenes` streams for `scene` at `dpi` on `threads`
+/// threads.
+fn png_file(dir: &Path, name: &str, scene: &Scene, dpi: f32, threads: usize) -> Vec<u8> {
+    let path = dir.join(name);
+    rayon::ThreadPoolBuilder::new()
+        .num_threads(threads)
+        .build()
+        .unwrap()
+        .install(|| write_scenes(std::slice::from_ref(scene), &path, dpi, true))
+        .unwrap();
+    std::fs::read(&path).unwrap()
+}
+
+#[test]
+fn streamed_png_files_hold_the_bytes_of_png_bytes() {
+    // 60 × 90 mm at 300 dpi: 709 × 1063 px, nine bands (the last partial).
+    let dir = work_dir("render_streamed_png");
+    let mut scene = mixed_scene();
+    (scene.width_mm, scene.height_mm) = (60.0, 90.0);
+    let bytes = starloom::render::output::png_bytes(&scene, 300.0).unwrap();
+    for threads in [1, 2, 3] {
+        let file = png_file(&dir, "sheet.png", &scene, 300.0, threads);
+        assert!(file == bytes, "{threads} threads: the file differs");
+    }
+    let (w, h, _, _, channels) = decode_png(&dir.join("sheet.png"));
+    assert_eq!((w, h, channels), (709, 1063, 3));
+}
+
+#[test]
+fn a_transparent_page_painted_over_is_written_as_rgb() {
+    // The background is transparent, so the writer starts in RGBA; every
+    // pixel turns out opaque, so it starts again in RGB (emptying the file
+    // it had begun) and gives the bytes of the page drawn whole.
+    let dir = work_dir("render_transparent_painted");
+    let (w, h) = (40.0, 50.0);
+    let cover = Item::Polygon {
+        points_mm: vec![
+            [-1.0, -1.0],
+            [w + 1.0, -1.0],
+            [w + 1.0, h + 1.0],
+            [-1.0, h + 1.0],
+        ],
+        fill: Rgba::rgb(20, 40, 60),
+        stroke: None,
+    };
+    let mut scene = page(w, h, vec![cover]);
+    scene.items.extend(mixed_scene().items);
+    scene.background = Rgba {
+        r: 0,
+        g: 0,
+        b: 0,
+        a: 0,
+    };
+    let pixmap = starloom::render::raster::rasterise(&scene, 300.0).unwrap();
+    let mut whole = Vec::new();
+    starloom::render::output::encode_png(&pixmap, 300.0, &mut whole).unwrap();
+    for threads in [1, 2] {
+        let file = png_file(&dir, "painted.png", &scene, 300.0, threads);
+        assert!(file == whole, "{threads} threads: the file differs");
+    }
+    let (_, _, _, _, channels) = decode_png(&dir.join("painted.png"));
+    assert_eq!(channels, 3);
+    // Left uncovered, the page stays RGBA.
+    scene.items.remove(0);
+    let file = png_file(&dir, "bare.png", &scene, 300.0, 2);
+    assert!(file == starloom::render::output::png_bytes(&scene, 300.0).unwrap());
+    let (_, _, _, _, channels) = decode_png(&dir.join("bare.png"));
+    assert_eq!(channels, 4);
 }
