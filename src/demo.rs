@@ -203,11 +203,21 @@ pub fn write_demo(dir: &Path, progress: &(dyn Fn(u64, u64) + Sync)) -> Result<De
         centre_ly: Some([0.0, 0.0, 0.0]),
         ..Default::default()
     };
-    let sheets = crate::map::build_sheets(&cat, &opts, &overlay)?;
-    let scenes: Vec<_> = sheets.sheets.iter().map(|s| s.scene.clone()).collect();
-    for ext in ["png", "pdf"] {
+    // The PDF's title block leaves the resolution out, so it has its own
+    // sheet.
+    for (ext, raster) in [("png", true), ("pdf", false)] {
+        let opts = crate::map::MapOptions {
+            raster,
+            ..opts.clone()
+        };
+        let sheets = crate::map::build_sheets(&cat, &opts, &overlay)?;
         let path = dir.join(format!("amberline_map.{ext}"));
-        crate::render::output::write_scenes(&scenes[..1], &path, DEMO_DPI, true)?;
+        crate::render::output::write_scenes(
+            std::slice::from_ref(&sheets.sheets[0].scene),
+            &path,
+            DEMO_DPI,
+            true,
+        )?;
         report.files.push(path);
     }
 

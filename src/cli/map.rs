@@ -188,6 +188,7 @@ fn settings(
         paper,
         landscape,
         dpi,
+        raster: ext.as_deref() == Some("png"),
         mm_per_ly: args
             .scale
             .as_deref()

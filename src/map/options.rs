@@ -115,6 +115,10 @@ pub struct MapOptions {
     pub landscape: bool,
     /// Raster resolution, dots per inch (sets the smallest dot).
     pub dpi: f32,
+    /// The sheets are for a raster file (PNG), so the title block names
+    /// `dpi`; false for vector files (SVG, PDF), where a resolution means
+    /// nothing and the title block leaves it out.
+    pub raster: bool,
     /// Scale, mm of paper per ly; `None` to fit one sheet.
     pub mm_per_ly: Option<f64>,
     /// Which stars get labels.
@@ -141,6 +145,7 @@ impl Default for MapOptions {
             paper: Paper::A4,
             landscape: true,
             dpi: 300.0,
+            raster: true,
             mm_per_ly: None,
             labels: LabelMode::Bright,
             layers: Layers::default(),

@@ -481,12 +481,16 @@ impl Ctx<'_> {
             }
             None => f.push(format!("scale {}", describe_scale(mm_per_ly))),
         }
-        f.push(format!(
-            "{} {}, {} dpi",
+        let paper = format!(
+            "{} {}",
             o.paper.as_str().to_uppercase(),
-            if o.landscape { "landscape" } else { "portrait" },
-            format_number(f64::from(o.dpi))
-        ));
+            if o.landscape { "landscape" } else { "portrait" }
+        );
+        f.push(if o.raster {
+            format!("{paper}, {} dpi", format_number(f64::from(o.dpi)))
+        } else {
+            paper
+        });
         let c = self.proj.centre_ly;
         let view = match o.view {
             ViewSpec::Oblique { tilt_deg } => {

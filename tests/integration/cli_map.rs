@@ -296,3 +296,27 @@ fn the_highest_resolution_draws_the_smallest_paper() {
     );
     assert_eq!(png_header(&dir.join("hr.png")), (28063, 19843, Some(94488)));
 }
+
+#[test]
+fn vector_title_blocks_name_no_resolution() {
+    let dir = setup("map-vector-title");
+    starloom_ok(&dir, &["map", "stars.csv", "--out", "map.svg"]);
+    let svg = String::from_utf8(std::fs::read(dir.join("map.svg")).unwrap()).unwrap();
+    assert!(svg.contains(">A4 landscape<"), "title block of map.svg");
+    assert!(!svg.contains("dpi"), "map.svg names a resolution");
+    // Also when one is given (it sets nothing in a vector file).
+    starloom_ok(
+        &dir,
+        &[
+            "map",
+            "stars.csv",
+            "--out",
+            "dpi.svg",
+            "--dpi",
+            "600",
+            "--portrait",
+        ],
+    );
+    let svg = String::from_utf8(std::fs::read(dir.join("dpi.svg")).unwrap()).unwrap();
+    assert!(svg.contains(">A4 portrait<") && !svg.contains("dpi"));
+}

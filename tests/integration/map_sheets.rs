@@ -674,3 +674,33 @@ fn star_labels_keep_clear_of_the_grid_texts() {
     }
     assert!(checked > 200, "pairs checked: {checked}");
 }
+
+/// Every text of a map's first sheet.
+fn sheet_texts(cat: &Catalogue, opts: &MapOptions) -> Vec<String> {
+    let sheets = build_sheets(cat, opts, &Overlay::default()).unwrap();
+    sheets.sheets[0]
+        .scene
+        .items
+        .iter()
+        .filter_map(|i| match i {
+            Item::Text { text, .. } => Some(text.clone()),
+            _ => None,
+        })
+        .collect()
+}
+
+#[test]
+fn only_raster_title_blocks_name_the_resolution() {
+    let raster = sheet_texts(&known(), &bare());
+    assert!(
+        raster.iter().any(|t| t == "A4 landscape, 300 dpi"),
+        "{raster:?}"
+    );
+    let vector = MapOptions {
+        raster: false,
+        ..bare()
+    };
+    let vector = sheet_texts(&known(), &vector);
+    assert!(vector.iter().any(|t| t == "A4 landscape"), "{vector:?}");
+    assert!(!vector.iter().any(|t| t.contains("dpi")), "{vector:?}");
+}
