@@ -2,7 +2,7 @@
 //! sheets and write them (one file per sheet; all pages in one PDF).
 
 use crate::error::Error;
-use crate::map::{self, LabelMode, Layers, MapOptions, options};
+use crate::map::{self, LabelMode, Layers, MapFilter, MapOptions, options};
 use crate::render::overlay::Overlay;
 use std::path::PathBuf;
 use std::process::ExitCode;
@@ -141,6 +141,40 @@ fn parse_route(text: &str) -> crate::Result<(String, String)> {
     Ok((a.to_string(), b.to_string()))
 }
 
+/// The note for a map whose filters left no systems, naming them with
+/// their values: "no systems match --z-range 1000,2000 ly; the sheet
+/// shows none".
+fn empty_note(opts: &MapOptions, emptied_by: &[MapFilter], n_sheets: usize) -> Option<String> {
+    let named: Vec<String> = emptied_by
+        .iter()
+        .filter_map(|f| match f {
+            MapFilter::Only => opts.only.as_ref().map(|kinds| {
+                let kinds: Vec<&str> = kinds.iter().map(|k| k.as_str()).collect();
+                format!("--only {}", kinds.join(","))
+            }),
+            MapFilter::ZRange => opts.z_range_ly.map(|[lo, hi]| {
+                format!(
+                    "--z-range {},{} ly",
+                    map::scale::format_number(lo),
+                    map::scale::format_number(hi)
+                )
+            }),
+        })
+        .collect();
+    if named.is_empty() {
+        return None;
+    }
+    let sheets = if n_sheets > 1 {
+        "the sheets show"
+    } else {
+        "the sheet shows"
+    };
+    Some(format!(
+        "no systems match {}; {sheets} none",
+        named.join(" with ")
+    ))
+}
+
 /// Validates every option into map settings and the overlay request.
 #[allow(clippy::type_complexity)]
 fn settings(
@@ -273,6 +307,9 @@ pub fn run(args: MapArgs) -> anyhow::Result<ExitCode> {
         }
     }
     stages.done("draw, encode, write");
+    if let Some(note) = empty_note(&opts, &sheets.emptied_by, sheets.sheets.len()) {
+        eprintln!("starloom: note: {note}");
+    }
     let [rows, cols] = sheets.tiles;
     if rows * cols > 1 {
         let tiles = format!(

@@ -25,7 +25,7 @@ pub mod style;
 pub mod view;
 
 pub use layout::Frame;
-pub use options::{LabelMode, Layers, MapOptions};
+pub use options::{LabelMode, Layers, MapFilter, MapOptions};
 pub use sheet::{MAX_TILES, MapSheet, MapSheets, SheetRole, build_sheets};
 
 use crate::catalogue::reader::Columns;

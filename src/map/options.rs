@@ -102,6 +102,15 @@ impl Layers {
     }
 }
 
+/// A filter of [`MapOptions`] that chooses which systems are drawn.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum MapFilter {
+    /// [`MapOptions::only`]: only some kinds of star.
+    Only,
+    /// [`MapOptions::z_range_ly`]: only some heights.
+    ZRange,
+}
+
 /// Everything that decides how a map looks, fully resolved.
 #[derive(Debug, Clone, PartialEq)]
 pub struct MapOptions {

@@ -16,7 +16,7 @@ use crate::map::layout::{
     Frame, GAP_MM, MARGIN_MM, OVERLAP_MM, PANEL_COLUMN_MM, TILE_MARGIN_MM, Tiling, clip_polyline,
     clip_segment, sheet_layout,
 };
-use crate::map::options::{LabelMode, MapOptions};
+use crate::map::options::{LabelMode, MapFilter, MapOptions};
 use crate::map::panel::{self, Block, KeyExtras, line, text, translate};
 use crate::map::scale::{describe_scale, format_number, nice_ceil};
 use crate::map::style::{
@@ -67,6 +67,10 @@ pub struct MapSheets {
     pub tiles: [usize; 2],
     /// Systems drawn (after filters).
     pub systems: usize,
+    /// The filters to blame when a catalogue with systems to draw gave
+    /// none: each filter that alone leaves none, else all of them
+    /// together. Empty when something is drawn or nothing could be.
+    pub emptied_by: Vec<MapFilter>,
     /// The map centre used, ly.
     pub centre_ly: [f64; 3],
 }
@@ -322,6 +326,11 @@ pub fn build_sheets(cat: &Catalogue, opts: &MapOptions, overlay: &Overlay) -> Re
         .or_else(|| cat.meta.title.clone())
         .unwrap_or_else(|| "Star map".to_string());
     let classes = class_colours(cat, &systems);
+    let emptied_by = if systems.is_empty() {
+        filters_leaving_none(cat, opts)
+    } else {
+        Vec::new()
+    };
     let ctx = Ctx {
         cat,
         opts,
@@ -336,7 +345,37 @@ pub fn build_sheets(cat: &Catalogue, opts: &MapOptions, overlay: &Overlay) -> Re
         title,
         classes,
     };
-    ctx.sheets(half, centre)
+    let mut sheets = ctx.sheets(half, centre)?;
+    sheets.emptied_by = emptied_by;
+    Ok(sheets)
+}
+
+/// The filters of `opts` that leave no system of `cat` (see
+/// [`MapSheets::emptied_by`]); only called when all of them together
+/// leave none.
+fn filters_leaving_none(cat: &Catalogue, opts: &MapOptions) -> Vec<MapFilter> {
+    let with = |only: bool, z_range: bool| MapOptions {
+        only: opts.only.clone().filter(|_| only),
+        z_range_ly: opts.z_range_ly.filter(|_| z_range),
+        ..opts.clone()
+    };
+    let leaves_none = |o: &MapOptions| select_systems(cat, o).is_empty();
+    let mut active = Vec::new();
+    if opts.only.is_some() {
+        active.push(MapFilter::Only);
+    }
+    if opts.z_range_ly.is_some() {
+        active.push(MapFilter::ZRange);
+    }
+    if active.is_empty() || leaves_none(&with(false, false)) {
+        return Vec::new();
+    }
+    let alone: Vec<MapFilter> = active
+        .iter()
+        .copied()
+        .filter(|f| leaves_none(&with(*f == MapFilter::Only, *f == MapFilter::ZRange)))
+        .collect();
+    if alone.is_empty() { active } else { alone }
 }
 
 fn format_height(dz: f64) -> String {
@@ -636,6 +675,7 @@ impl Ctx<'_> {
                 tiles: [1, 1],
                 systems: n_sys,
                 centre_ly: centre,
+                emptied_by: Vec::new(),
             });
         }
         // A poster: tiles with a bare margin, plus an index sheet.
@@ -717,6 +757,7 @@ impl Ctx<'_> {
             tiles: [tiling.rows, tiling.cols],
             systems: n_sys,
             centre_ly: centre,
+            emptied_by: Vec::new(),
         })
     }
 

@@ -1,7 +1,7 @@
 //! The `map` command as a user runs it: bad input gives one sentence,
 //! exit code 2 and no file.
 
-use crate::util::{assert_user_error, starloom, starloom_ok, stderr, work_dir};
+use crate::util::{assert_user_error, starloom, starloom_ok, stderr, stdout, work_dir};
 use std::path::Path;
 
 const HAND_MADE: &str = "name,x_ly,y_ly,z_ly\nHome,0,0,0\nEast,10,0,2\nNorth,0,10,-3\n";
@@ -319,4 +319,75 @@ fn vector_title_blocks_name_no_resolution() {
     );
     let svg = String::from_utf8(std::fs::read(dir.join("dpi.svg")).unwrap()).unwrap();
     assert!(svg.contains(">A4 portrait<") && !svg.contains("dpi"));
+}
+
+#[test]
+fn filters_that_leave_nothing_are_named_in_a_note() {
+    let dir = work_dir("map-empty-filters");
+    // East is the only white dwarf and the only system above z = 0.
+    std::fs::write(
+        dir.join("stars.csv"),
+        "name,x_ly,y_ly,z_ly,kind\nHome,0,0,0,main-sequence\n\
+         East,10,0,2,white-dwarf\nNorth,0,10,-3,main-sequence\n",
+    )
+    .unwrap();
+    let cases: &[(&[&str], &str)] = &[
+        (
+            &["--z-range", "1000,2000"],
+            "no systems match --z-range 1000,2000 ly; the sheet shows none",
+        ),
+        (
+            &["--only", "neutron-star"],
+            "no systems match --only neutron-star; the sheet shows none",
+        ),
+        // Each leaves none alone: both are named.
+        (
+            &[
+                "--only",
+                "neutron-star,black-hole",
+                "--z-range",
+                "1000,2000",
+            ],
+            "no systems match --only neutron-star,black-hole with --z-range 1000,2000 ly;",
+        ),
+        // Only one of them leaves none alone: only that one is named.
+        (
+            &["--only", "white-dwarf", "--z-range", "-1000,-500"],
+            "no systems match --z-range -1000,-500 ly;",
+        ),
+        // Each leaves a system, but not the same one: both are named.
+        (
+            &["--only", "white-dwarf", "--z-range", "-5,0"],
+            "no systems match --only white-dwarf with --z-range -5,0 ly;",
+        ),
+    ];
+    for (k, (extra, note)) in cases.iter().enumerate() {
+        let name = format!("empty{k}.svg");
+        let mut args = vec!["map", "stars.csv", "--out", name.as_str()];
+        args.extend_from_slice(extra);
+        let out = starloom_ok(&dir, &args);
+        let err = stderr(&out);
+        assert_eq!(err.lines().count(), 1, "{extra:?}: {err}");
+        assert!(
+            err.starts_with(&format!("starloom: note: {note}")),
+            "{extra:?}: {err}"
+        );
+        assert!(stdout(&out).contains("(0 systems, "), "{}", stdout(&out));
+        let svg = String::from_utf8(std::fs::read(dir.join(&name)).unwrap()).unwrap();
+        assert!(svg.contains(">0 systems shown<"), "{extra:?}");
+    }
+    // A filter that leaves something says nothing.
+    let out = starloom_ok(
+        &dir,
+        &[
+            "map",
+            "stars.csv",
+            "--out",
+            "some.svg",
+            "--only",
+            "white-dwarf",
+        ],
+    );
+    assert!(stderr(&out).is_empty(), "{}", stderr(&out));
+    assert!(stdout(&out).contains("(1 system, "), "{}", stdout(&out));
 }

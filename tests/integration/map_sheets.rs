@@ -6,7 +6,7 @@ use starloom::catalogue::Catalogue;
 use starloom::catalogue::table::{Origin, StarRow};
 use starloom::map::labels::Rect;
 use starloom::map::view::ViewSpec;
-use starloom::map::{Layers, MapOptions, SheetRole, build_sheets};
+use starloom::map::{Layers, MapFilter, MapOptions, SheetRole, build_sheets};
 use starloom::physics::{Fidelity, KindChoice, StarKind, StarRequest, star_profile};
 use starloom::render::overlay::Overlay;
 use starloom::render::scene::{Item, Scene};
@@ -703,4 +703,55 @@ fn only_raster_title_blocks_name_the_resolution() {
     let vector = sheet_texts(&known(), &vector);
     assert!(vector.iter().any(|t| t == "A4 landscape"), "{vector:?}");
     assert!(!vector.iter().any(|t| t.contains("dpi")), "{vector:?}");
+}
+
+#[test]
+fn filters_that_leave_nothing_are_reported() {
+    let emptied_by = |cat: &Catalogue, opts: MapOptions| {
+        build_sheets(cat, &opts, &Overlay::default())
+            .unwrap()
+            .emptied_by
+    };
+    let high = Some([100.0, 200.0]);
+    let white_dwarfs = Some(vec![StarKind::WhiteDwarf]);
+    // The five stars are all main-sequence, from z = -6 to 4 ly.
+    let z = MapOptions {
+        z_range_ly: high,
+        ..bare()
+    };
+    assert_eq!(emptied_by(&known(), z), [MapFilter::ZRange]);
+    let only = MapOptions {
+        only: white_dwarfs.clone(),
+        ..bare()
+    };
+    assert_eq!(emptied_by(&known(), only), [MapFilter::Only]);
+    let both = MapOptions {
+        only: white_dwarfs,
+        z_range_ly: high,
+        ..bare()
+    };
+    assert_eq!(
+        emptied_by(&known(), both.clone()),
+        [MapFilter::Only, MapFilter::ZRange]
+    );
+    // No star lies from z = 5 to 6 ly, while --only main-sequence keeps
+    // all five: the z range alone is to blame.
+    let main_sequence_high = MapOptions {
+        only: Some(vec![StarKind::MainSequence]),
+        z_range_ly: Some([5.0, 6.0]),
+        ..bare()
+    };
+    assert_eq!(
+        emptied_by(&known(), main_sequence_high),
+        [MapFilter::ZRange]
+    );
+    // Nothing filtered away: nothing to report.
+    assert!(emptied_by(&known(), bare()).is_empty());
+    let some = MapOptions {
+        z_range_ly: Some([1.0, 6.0]),
+        ..bare()
+    };
+    assert!(emptied_by(&known(), some).is_empty());
+    // An empty catalogue: the filters are not to blame.
+    assert!(emptied_by(&Catalogue::default(), both).is_empty());
 }
