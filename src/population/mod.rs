@@ -99,6 +99,11 @@ impl Population {
         let Some(primary) = profiles[0] else {
             return;
         };
+        // A primary kicked out of the neighbourhood leaves its companions
+        // behind unbound: the first that is left becomes the system's
+        // primary (no orbit) and any later one orbits it at its own
+        // separation.
+        let mut head_msun: Option<f64> = None;
         for slot in 0..=n_comp {
             let Some(profile) = profiles[slot].filter(|_| stays[slot]) else {
                 continue;
@@ -120,6 +125,15 @@ impl Population {
                     PresentOrbit::Merged => continue,
                 }
             };
+            let (separation_au, period_days) = match (stays[0], head_msun) {
+                (true, _) => (separation_au, period_days),
+                (false, None) => (0.0, 0.0),
+                (false, Some(head)) => (
+                    separation_au,
+                    orbit_evolution::kepler_period_days(separation_au, head + profile.mass_msun),
+                ),
+            };
+            head_msun.get_or_insert(profile.mass_msun);
             out.push(Member {
                 slot: slot as u8,
                 profile,

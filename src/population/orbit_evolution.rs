@@ -41,9 +41,12 @@
 //! its Roche lobe (about 0.4 a for equal masses, Eggleton 1983), so fewer
 //! systems interact than in nature; the wind widening before the largest
 //! radius is ignored for the engulfment test, which goes the other way.
-//! Stable mass transfer, tides, eccentricity (orbits are circular here),
-//! a giant that is engulfing its companion today and orbits of companions
-//! whose primary was kicked away are not modelled.
+//! Stable mass transfer, tides, eccentricity (orbits are circular here)
+//! and a giant that is engulfing its companion today are not modelled.
+//! When a primary is kicked away its companions stay unbound where they
+//! were (`Population::draw_system`): the first becomes the primary and a
+//! later one keeps its separation, with its period about the new primary
+//! (an approximation: the real orbits after the kick are not followed).
 //!
 //! # Allocations
 //! None; O(1) per companion, and companions of two unevolved members
@@ -136,11 +139,17 @@ pub fn present_orbit(
         }
         mass_then[donor] = after;
     }
-    let p_years = (a * a * a / (primary.mass_msun + companion.mass_msun)).sqrt();
     PresentOrbit::Detached {
         separation_au: a,
-        period_days: p_years * DAYS_PER_YEAR,
+        period_days: kepler_period_days(a, primary.mass_msun + companion.mass_msun),
     }
+}
+
+/// Period, days, of an orbit of semi-major axis `separation_au` about a
+/// total mass `total_msun`: Kepler's third law in au, years and solar
+/// masses, P² = a³ / M (textbook).
+pub fn kepler_period_days(separation_au: f64, total_msun: f64) -> f64 {
+    (separation_au.powi(3) / total_msun).sqrt() * DAYS_PER_YEAR
 }
 
 #[cfg(test)]

@@ -19,9 +19,8 @@ fn sector() -> &'static Catalogue {
     })
 }
 
-/// Each system as (primary row, companion rows), skipping systems whose
-/// primary was kicked away: their companions keep the orbit about a star
-/// that is no longer there (not modelled, see `population::orbit_evolution`).
+/// Each system as (primary row, companion rows). A system whose primary
+/// was kicked away has its first remaining member as primary.
 fn systems(cat: &Catalogue) -> Vec<(usize, Vec<usize>)> {
     let mut out: Vec<(usize, Vec<usize>)> = Vec::new();
     for i in 0..cat.len() {
@@ -30,8 +29,25 @@ fn systems(cat: &Catalogue) -> Vec<(usize, Vec<usize>)> {
             _ => out.push((i, Vec::new())),
         }
     }
-    out.retain(|(p, _)| cat.separation_au[*p] == 0.0);
     out
+}
+
+#[test]
+fn every_system_leads_with_a_primary_without_an_orbit() {
+    // Before, a system whose neutron-star or black-hole primary had been
+    // kicked away kept its companions on orbits about the missing star,
+    // so its first row carried a separation.
+    let cat = sector();
+    let all = systems(cat);
+    assert!(all.len() > 10_000);
+    for (p, _) in &all {
+        assert_eq!(
+            (cat.separation_au[*p], cat.period_days[*p]),
+            (0.0, 0.0),
+            "{}",
+            cat.name.get(*p).unwrap_or("?")
+        );
+    }
 }
 
 #[test]
