@@ -1,5 +1,9 @@
 //! The JSON Lines catalogue format: one JSON object per star, with the
-//! same keys as the CSV columns; missing values are `null`.
+//! same keys as the CSV columns; missing values are `null`. Ids (`id`,
+//! `system`) are 64-bit and mostly above 2^53, where JSON readers that
+//! hold numbers as doubles (JavaScript, jq) would round them and merge
+//! distinct stars, so they are written as strings of digits; the reader
+//! takes them as strings or numbers.
 
 use super::csv_format::COLUMNS;
 use super::designations::push_designation;
@@ -52,9 +56,13 @@ pub fn push_row<S: TextSink>(buf: &mut S, row: &RowView<'_>) {
     let p = row.profile;
     buf.push_byte(b'{');
     push_key(buf, 0);
+    buf.push_byte(b'"');
     push_u64(buf, row.id);
+    buf.push_byte(b'"');
     push_key(buf, 1);
+    buf.push_byte(b'"');
     push_u64(buf, row.system);
+    buf.push_byte(b'"');
     push_key(buf, 2);
     if row.origin == Origin::Generated {
         buf.push_byte(b'"');

@@ -448,3 +448,59 @@ fn sector_reads_every_kind_it_writes_with_its_zeros() {
         starloom_ok(&dir, &["summary", out]);
     }
 }
+
+#[test]
+fn jsonl_ids_survive_readers_that_hold_numbers_as_doubles() {
+    // Ids are 64-bit and mostly above 2^53 = 9 007 199 254 740 992 (IEEE
+    // 754 binary64 holds every integer only up to there), so JavaScript or
+    // jq would round them as numbers and merge stars; as strings they
+    // stay exact. Old files with numeric ids still read.
+    let dir = work_dir("sector_jsonl_ids");
+    starloom_ok(
+        &dir,
+        &[
+            "populate", "--sphere", "80", "--seed", "9", "--out", "s.jsonl",
+        ],
+    );
+    let text = std::fs::read_to_string(dir.join("s.jsonl")).unwrap();
+    let mut ids = std::collections::HashSet::new();
+    let mut as_doubles = std::collections::HashSet::new();
+    for line in text.lines() {
+        let v: serde_json::Value = serde_json::from_str(line).unwrap();
+        let id = v["id"].as_str().expect("the id is a JSON string");
+        assert!(v["system"].is_string());
+        let n: u64 = id.parse().unwrap();
+        ids.insert(n);
+        as_doubles.insert(n as f64 as u64);
+    }
+    assert!(ids.len() > 1000);
+    assert!(
+        as_doubles.len() < ids.len(),
+        "the ids need more than 53 bits"
+    );
+    let cat = read_catalogue(&dir.join("s.jsonl")).unwrap();
+    assert_eq!(
+        cat.id
+            .iter()
+            .copied()
+            .collect::<std::collections::HashSet<_>>(),
+        ids
+    );
+    // A file with numeric ids (as written before) reads the same.
+    let numeric = text
+        .lines()
+        .map(|l| {
+            let mut v: serde_json::Value = serde_json::from_str(l).unwrap();
+            for key in ["id", "system"] {
+                let n: u64 = v[key].as_str().unwrap().parse().unwrap();
+                v[key] = serde_json::Value::from(n);
+            }
+            v.to_string()
+        })
+        .collect::<Vec<_>>()
+        .join("\n");
+    std::fs::write(dir.join("old.jsonl"), numeric).unwrap();
+    let old = read_catalogue(&dir.join("old.jsonl")).unwrap();
+    assert_eq!(old.id, cat.id);
+    assert_eq!(old.system, cat.system);
+}
