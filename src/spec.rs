@@ -647,7 +647,7 @@ pub enum NumberOrText {
 }
 
 impl NumberOrText {
-    pub(crate) fn as_text(&self) -> String {
+    fn as_text(&self) -> String {
         match self {
             NumberOrText::Number(v) => format!("{v}"),
             NumberOrText::Text(t) => t.clone(),
@@ -870,6 +870,17 @@ impl SpecFile {
         }
     }
 
+    /// The sector's centre, ly: the origin when the file gives none.
+    pub fn centre(&self) -> Result<[f64; 3]> {
+        match &self.centre_ly {
+            None => Ok([0.0; 3]),
+            Some(v) => {
+                let text: Vec<String> = v.iter().map(NumberOrText::as_text).collect();
+                parse_centre(&self.label(Setting::Centre), &text.join(","))
+            }
+        }
+    }
+
     /// Resolves the file into a spec. `seed` is used when the file has none;
     /// `base` is the folder that relative pin paths are taken from.
     pub fn resolve(&self, default_seed: u64, base: &Path) -> Result<SectorSpec> {
@@ -881,14 +892,7 @@ impl SpecFile {
             }
             Some(s) => self.resolve_shape(s)?,
         };
-        let centre = match &self.centre_ly {
-            None => [0.0; 3],
-            Some(v) => {
-                let text: Vec<String> = v.iter().map(NumberOrText::as_text).collect();
-                parse_centre(&self.label(Setting::Centre), &text.join(","))?
-            }
-        };
-        let mut spec = SectorSpec::new(self.seed.unwrap_or(default_seed), shape, centre);
+        let mut spec = SectorSpec::new(self.seed.unwrap_or(default_seed), shape, self.centre()?);
         spec.title = self.title.clone();
         if let Some(d) = &self.density {
             spec.density_per_ly3 = parse_density(&self.label(Setting::Density), &d.as_text())?;

@@ -2344,15 +2344,11 @@ pub fn read_sidecar_meta(path: &Path) -> CatalogueMeta {
         .and_then(|t| crate::spec::SpecFile::parse(&t, &side).ok())
     {
         Some(spec) => {
-            // The sector's centre as `populate --spec` would resolve it:
-            // the origin when the file gives a shape but no centre.
-            let centre_ly = match &spec.centre_ly {
-                None => spec.shape.as_ref().map(|_| [0.0; 3]),
-                Some(v) => {
-                    let text: Vec<String> = v.iter().map(|c| c.as_text()).collect();
-                    crate::spec::parse_centre("centre_ly", &text.join(",")).ok()
-                }
-            };
+            // The sector's centre as `populate --spec` resolves it: the
+            // origin when the file gives a shape but no centre.
+            let centre_ly = (spec.centre_ly.is_some() || spec.shape.is_some())
+                .then(|| spec.centre().ok())
+                .flatten();
             CatalogueMeta {
                 title: spec.title,
                 seed: spec.seed,
@@ -2385,15 +2381,9 @@ pub fn read_pins(path: &Path) -> Result<Vec<crate::spec::PinnedSystem>> {
     for (i, evolve) in evolved.iter_mut().enumerate() {
         let c = &mut partial.cat;
         let line = i as u64 + 2;
+        // The reader has refused masses that are not positive and ages
+        // below 0; a pin's age must also lie within the universe's.
         let (mass, age) = (c.mass_msun[i], c.age_gyr[i]);
-        if !(mass.is_nan() || (mass > 0.0 && mass.is_finite())) {
-            return Err(Error::BadRow {
-                path: path.to_path_buf(),
-                line,
-                column: "mass_msun".into(),
-                message: format!("'{mass}' must be a positive number of solar masses"),
-            });
-        }
         if !(age.is_nan() || (0.0..=13.8).contains(&age)) {
             return Err(Error::BadRow {
                 path: path.to_path_buf(),
