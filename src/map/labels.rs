@@ -122,11 +122,19 @@ fn candidates(r: &LabelRequest) -> [Rect; 8] {
     ]
 }
 
-struct Grid {
-    cells: HashMap<(i32, i32), Vec<Rect>>,
+/// Boxes in a hash grid of [`CELL_MM`] cells, each with a value (a
+/// marker's radius, or nothing).
+struct Grid<T = ()> {
+    cells: HashMap<(i32, i32), Vec<(Rect, T)>>,
 }
 
-impl Grid {
+impl<T: Copy> Grid<T> {
+    fn new() -> Grid<T> {
+        Grid {
+            cells: HashMap::new(),
+        }
+    }
+
     fn cell_range(r: &Rect) -> (i32, i32, i32, i32) {
         (
             (r.x0 / CELL_MM).floor() as i32,
@@ -136,58 +144,38 @@ impl Grid {
         )
     }
 
-    fn hits(&self, r: &Rect) -> bool {
-        let (cx0, cy0, cx1, cy1) = Grid::cell_range(r);
+    /// True when `r` overlaps a box whose value `counts`.
+    fn hits_where(&self, r: &Rect, counts: impl Fn(T) -> bool) -> bool {
+        let (cx0, cy0, cx1, cy1) = Self::cell_range(r);
         for cx in cx0..=cx1 {
             for cy in cy0..=cy1 {
                 if let Some(v) = self.cells.get(&(cx, cy))
-                    && v.iter().any(|o| o.overlaps(r))
+                    && v.iter().any(|(o, t)| counts(*t) && o.overlaps(r))
                 {
                     return true;
                 }
             }
         }
         false
+    }
+
+    fn insert_with(&mut self, r: Rect, value: T) {
+        let (cx0, cy0, cx1, cy1) = Self::cell_range(&r);
+        for cx in cx0..=cx1 {
+            for cy in cy0..=cy1 {
+                self.cells.entry((cx, cy)).or_default().push((r, value));
+            }
+        }
+    }
+}
+
+impl Grid {
+    fn hits(&self, r: &Rect) -> bool {
+        self.hits_where(r, |()| true)
     }
 
     fn insert(&mut self, r: Rect) {
-        let (cx0, cy0, cx1, cy1) = Grid::cell_range(&r);
-        for cx in cx0..=cx1 {
-            for cy in cy0..=cy1 {
-                self.cells.entry((cx, cy)).or_default().push(r);
-            }
-        }
-    }
-}
-
-/// Star markers as boxes with their radii, in the same cells as [`Grid`].
-struct MarkerGrid {
-    cells: HashMap<(i32, i32), Vec<(Rect, f32)>>,
-}
-
-impl MarkerGrid {
-    /// True when `r` overlaps a marker of radius `min_radius_mm` or more.
-    fn hits(&self, r: &Rect, min_radius_mm: f32) -> bool {
-        let (cx0, cy0, cx1, cy1) = Grid::cell_range(r);
-        for cx in cx0..=cx1 {
-            for cy in cy0..=cy1 {
-                if let Some(v) = self.cells.get(&(cx, cy))
-                    && v.iter().any(|(o, d)| *d >= min_radius_mm && o.overlaps(r))
-                {
-                    return true;
-                }
-            }
-        }
-        false
-    }
-
-    fn insert(&mut self, r: Rect, radius_mm: f32) {
-        let (cx0, cy0, cx1, cy1) = Grid::cell_range(&r);
-        for cx in cx0..=cx1 {
-            for cy in cy0..=cy1 {
-                self.cells.entry((cx, cy)).or_default().push((r, radius_mm));
-            }
-        }
+        self.insert_with(r, ());
     }
 }
 
@@ -223,20 +211,17 @@ pub fn place_labels_insisting(
     area: Rect,
     budget: usize,
 ) -> Vec<Placed> {
-    let mut blocked = Grid {
-        cells: HashMap::new(),
-    };
+    let mut blocked = Grid::new();
     for o in obstacles {
         blocked.insert(*o);
     }
     // Each star's own marker blocks other labels.
-    let mut markers = MarkerGrid {
-        cells: HashMap::new(),
-    };
+    // Star markers with their radii.
+    let mut markers: Grid<f32> = Grid::new();
     for r in requests {
         let [x, y] = r.anchor_mm;
         let d = r.radius_mm;
-        markers.insert(
+        markers.insert_with(
             Rect {
                 x0: x - d,
                 y0: y - d,
@@ -246,9 +231,7 @@ pub fn place_labels_insisting(
             d,
         );
     }
-    let mut placed_grid = Grid {
-        cells: HashMap::new(),
-    };
+    let mut placed_grid = Grid::new();
     let mut placed = Vec::new();
     for (i, r) in requests.iter().enumerate() {
         if placed.len() >= budget {
@@ -262,7 +245,8 @@ pub fn place_labels_insisting(
         // No other star's marker (nor its own: the diagonal places of a
         // large disc touch its box); failing that, none but much fainter
         // stars' markers.
-        let clear_of = |c: &Rect, min_radius_mm: f32| !markers.hits(c, min_radius_mm);
+        let clear_of =
+            |c: &Rect, min_radius_mm: f32| !markers.hits_where(c, |d| d >= min_radius_mm);
         let found = cands
             .iter()
             .find(|c| free(c) && clear_of(c, 0.0))
