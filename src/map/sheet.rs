@@ -117,6 +117,9 @@ struct Ctx<'a> {
     xy_max: [f64; 2],
     title: String,
     classes: Vec<(char, Rgba)>,
+    /// The catalogue is a generated sector with the user's own systems
+    /// pinned into it (rows of both origins): those are labelled first.
+    has_pins: bool,
 }
 
 fn pos(cat: &Catalogue, row: usize) -> [f64; 3] {
@@ -344,6 +347,8 @@ pub fn build_sheets(cat: &Catalogue, opts: &MapOptions, overlay: &Overlay) -> Re
         xy_max,
         title,
         classes,
+        has_pins: cat.origin.par_iter().any(|&o| o == Origin::Generated)
+            && cat.origin.par_iter().any(|&o| o == Origin::Imported),
     };
     let mut sheets = ctx.sheets(half, centre)?;
     sheets.emptied_by = emptied_by;
@@ -980,6 +985,12 @@ impl Ctx<'_> {
             let l = cat.luminosity_lsun[self.systems[v.sys as usize].look as usize];
             if l.is_nan() { 1.0 } else { l }
         };
+        // Systems with a name, and a habitable host when only those are
+        // asked for.
+        let wanted = |v: &Vis| {
+            let s = &self.systems[v.sys as usize];
+            !cat.name[s.row as usize].is_empty() && (mode != LabelMode::Habitable || s.habitable)
+        };
         let keep = budget.saturating_mul(6).min(50_000);
         let by_key =
             |a: &(f64, u32, u32), b: &(f64, u32, u32)| b.0.total_cmp(&a.0).then(a.1.cmp(&b.1));
@@ -1003,12 +1014,8 @@ impl Ctx<'_> {
                 let mut best: Vec<(f64, u32, u32)> = part
                     .iter()
                     .enumerate()
-                    .filter_map(|(j, v)| {
-                        let s = &self.systems[v.sys as usize];
-                        let wanted = !cat.name[s.row as usize].is_empty()
-                            && (mode != LabelMode::Habitable || s.habitable);
-                        wanted.then(|| (lum(v), v.sys, (c * SLICE + j) as u32))
-                    })
+                    .filter(|(_, v)| wanted(v))
+                    .map(|(j, v)| (lum(v), v.sys, (c * SLICE + j) as u32))
                     .collect();
                 keep_best(&mut best);
                 best
@@ -1028,16 +1035,9 @@ impl Ctx<'_> {
         // neighbouring stars: they are the story's places.
         let mut insist = 0;
         let row_origin = |i: usize| cat.origin[self.systems[vis[i].sys as usize].row as usize];
-        if cat.origin.par_iter().any(|&o| o == Origin::Generated)
-            && cat.origin.par_iter().any(|&o| o == Origin::Imported)
-        {
+        if self.has_pins {
             let mut pins: Vec<usize> = (0..vis.len())
-                .filter(|&i| {
-                    let s = &self.systems[vis[i].sys as usize];
-                    row_origin(i) == Origin::Imported
-                        && !cat.name[s.row as usize].is_empty()
-                        && (mode != LabelMode::Habitable || s.habitable)
-                })
+                .filter(|&i| row_origin(i) == Origin::Imported && wanted(&vis[i]))
                 .collect();
             pins.sort_by(by_lum);
             insist = pins.len();
