@@ -130,7 +130,7 @@ impl Population {
                 (false, None) => (0.0, 0.0),
                 (false, Some(head)) => (
                     separation_au,
-                    orbit_evolution::kepler_period_days(separation_au, head + profile.mass_msun),
+                    multiplicity::kepler_period_days(separation_au, head + profile.mass_msun),
                 ),
             };
             head_msun.get_or_insert(profile.mass_msun);

@@ -31,7 +31,14 @@ use rand_distr::{Distribution, StandardNormal};
 pub const MAX_COMPANIONS: usize = 3;
 
 /// Days in a Julian year.
-const DAYS_PER_YEAR: f64 = 365.25;
+pub(crate) const DAYS_PER_YEAR: f64 = 365.25;
+
+/// Period, days, of an orbit of semi-major axis `separation_au` about a
+/// total mass `total_msun`: Kepler's third law in au, years and solar
+/// masses, P² = a³ / M (textbook).
+pub fn kepler_period_days(separation_au: f64, total_msun: f64) -> f64 {
+    (separation_au.powi(3) / total_msun).sqrt() * DAYS_PER_YEAR
+}
 
 /// Probabilities of 0, 1, 2 and 3 companions for a primary of `m1` Msun.
 pub fn companion_probabilities(m1_msun: f64) -> [f64; 4] {
@@ -101,8 +108,7 @@ pub fn draw_orbit(m1_msun: f64, m2_msun: f64, rng: &mut StarRng) -> (f64, f64) {
     } else {
         let z: f64 = StandardNormal.sample(rng);
         let a_au = 10f64.powf((0.95 + 1.0 * z).max(-2.0));
-        let p_years = (a_au.powi(3) / total).sqrt();
-        (p_years * DAYS_PER_YEAR, a_au)
+        (kepler_period_days(a_au, total), a_au)
     }
 }
 

@@ -52,12 +52,10 @@
 //! None; O(1) per companion, and companions of two unevolved members
 //! keep the drawn orbit bit for bit.
 
+use super::multiplicity::kepler_period_days;
 use crate::physics::constants::R_SUN_PER_AU;
 use crate::physics::{Fidelity, StarProfile, largest_radius_rsun, main_sequence};
 use crate::units::SolarMasses;
-
-/// Days in a Julian year.
-const DAYS_PER_YEAR: f64 = 365.25;
 
 /// A companion's orbit about the primary today.
 #[derive(Debug, Clone, Copy, PartialEq)]
@@ -145,17 +143,11 @@ pub fn present_orbit(
     }
 }
 
-/// Period, days, of an orbit of semi-major axis `separation_au` about a
-/// total mass `total_msun`: Kepler's third law in au, years and solar
-/// masses, P² = a³ / M (textbook).
-pub fn kepler_period_days(separation_au: f64, total_msun: f64) -> f64 {
-    (separation_au.powi(3) / total_msun).sqrt() * DAYS_PER_YEAR
-}
-
 #[cfg(test)]
 mod tests {
     use super::*;
     use crate::physics::{KindChoice, StarKind, StarRequest, star_profile};
+    use crate::population::multiplicity::DAYS_PER_YEAR;
     use crate::units::Gigayears;
 
     fn rel(a: f64, b: f64) -> f64 {
