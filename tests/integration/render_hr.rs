@@ -87,8 +87,10 @@ fn the_coldest_brown_dwarfs_and_faint_neutron_stars_are_plotted() {
     // Y dwarfs reach about 250 K (Kirkpatrick et al. 2021, ApJS 253, 7: the
     // coldest in the 20 pc census; from memory for the exact figure) and
     // generated 13 Gyr old brown dwarfs of 0.013 Msun about 225 K; a cooled
-    // neutron star of 10^4 K and 10 km shines about 4e-9 Lsun (Stefan–
-    // Boltzmann). All must be on the diagram, not silently dropped.
+    // neutron star of 10 484 K and 12.5 km shines 3.5e-9 Lsun (Stefan–
+    // Boltzmann, L = (R / Rsun)² (T / 5772 K)⁴ with Rsun = 695 700 km, IAU
+    // 2015 B3; both values as a generated sector has them). All must be on
+    // the diagram, not silently dropped.
     let csv = "name,x_ly,y_ly,z_ly,teff_k,luminosity_lsun,kind\n\
 Sunlike,1,0,0,5772,1,main-sequence\n\
 Frost,2,0,0,225,3.1e-8,brown-dwarf\n\
